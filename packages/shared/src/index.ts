@@ -1,0 +1,3 @@
+export * from './schemas/index.js';
+export * from './rules/index.js';
+export * from './schedule/index.js';

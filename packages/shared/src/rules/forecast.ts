@@ -1,0 +1,261 @@
+import { z } from 'zod';
+import { parseInstant, type IsoInstant } from './dates.js';
+import type { RuleSettings } from './settings.js';
+
+/** One forecast hour at the site; it stands for the hour that starts at `time`. */
+export interface ForecastHour {
+  time: IsoInstant;
+  tempC: number;
+  /** Mean wind at 10 m. */
+  windMeanMs: number;
+  windGustMs: number;
+  /** Precipitation amount in the hour. */
+  precipMm: number;
+  /** 0–1. */
+  precipProbability: number;
+}
+
+export const forecastHourSchema = z.object({
+  time: z.iso.datetime({ offset: true }),
+  tempC: z.number().finite().min(-90).max(60),
+  windMeanMs: z.number().finite().min(0).max(120),
+  windGustMs: z.number().finite().min(0).max(150),
+  precipMm: z.number().finite().min(0).max(500),
+  precipProbability: z.number().finite().min(0).max(1),
+});
+
+export type Verdict = 'go' | 'caution' | 'stop';
+export type ReasonUnit = 'm/s' | '°C' | 'mm/h' | 'h';
+
+export interface RuleReason {
+  /** Stable id, e.g. `wind.mewp.gust`; the UI keys its text and help on it. */
+  ruleId: string;
+  verdict: Exclude<Verdict, 'go'>;
+  threshold: number;
+  unit: ReasonUnit;
+  /** The worst value seen (highest wind or rain, lowest temperature…). */
+  observed: number;
+  /** Start of the forecast hour where `observed` was seen. */
+  at: IsoInstant | null;
+  /** Working-window hours the rule touched (0 for look-ahead rules). */
+  hours: number;
+  message: string;
+  source: string;
+  /** Beaufort force of the observed wind, on every wind reason. */
+  beaufort?: { force: number; name: string };
+}
+
+export const HOUR = 3_600_000;
+
+/** The forecast read once per assessment; every rule family works from this. */
+export interface HourContext {
+  forecast: readonly ForecastHour[];
+  /** Epoch ms per hour, parsed on first use (NaN until then). */
+  times: Float64Array;
+  /** Hours overlapping the window: indexes i0 ≤ i < i1. */
+  i0: number;
+  i1: number;
+  /** Window hours each forecast hour covers (0 outside the window). */
+  overlap: Float64Array;
+  windowStart: number;
+  windowEnd: number;
+  windowHours: number;
+  coveredHours: number;
+  settings: RuleSettings;
+}
+
+// Scratch buffers reused between calls: assessDay is synchronous and never hands them out,
+// and not allocating three typed arrays per job-day keeps the collector quiet on big boards.
+let scratchTimes = new Float64Array(256);
+let scratchOverlap = new Float64Array(256);
+let scratchBlocked = new Uint8Array(256);
+
+export function blockedBuffer(n: number): Uint8Array {
+  if (scratchBlocked.length < n) scratchBlocked = new Uint8Array(n * 2);
+  return scratchBlocked;
+}
+
+export function timeAt(ctx: HourContext, i: number): number {
+  let t = ctx.times[i] as number;
+  if (t !== t) {
+    const h = ctx.forecast[i] as ForecastHour;
+    try {
+      t = parseInstant(h.time, 'time');
+    } catch (e) {
+      throw new RangeError(`forecast[${i}]: ${e instanceof Error ? e.message : String(e)}`);
+    }
+    ctx.times[i] = t;
+  }
+  return t;
+}
+
+/**
+ * First index ≥ `from` whose hour starts at or after `ms`. The forecast is in time order and
+ * nearly always hourly, so try the index an hourly series would give before bisecting:
+ * that reads three times instead of seven.
+ */
+export function indexAtOrAfter(ctx: HourContext, ms: number, from = 0): number {
+  const n = ctx.forecast.length;
+  if (from >= n) return n;
+  const t0 = timeAt(ctx, from);
+  if (t0 >= ms) return from;
+  if (timeAt(ctx, n - 1) < ms) return n;
+  let lo = from + 1;
+  let hi = n - 1;
+  const guess = from + Math.ceil((ms - t0) / HOUR);
+  if (guess > from && guess < n) {
+    if (timeAt(ctx, guess) >= ms) {
+      if (timeAt(ctx, guess - 1) < ms) return guess;
+      hi = guess - 1;
+    } else lo = guess + 1;
+  }
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (timeAt(ctx, mid) < ms) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** The hour a temperature rule hit hardest, and the window hours it touched. */
+export interface TempExtreme {
+  tempC: number;
+  /** Index of that hour in the forecast. */
+  at: number;
+  hours: number;
+}
+
+/**
+ * Scans the window's hours for those `hits` picks, returning the coldest (or, with `hottest`, the warmest) and the
+ * window hours they cover; with `blocked`, marks each hit hour as unusable. Null when no hour hits.
+ */
+export function windowExtreme(
+  ctx: HourContext, hits: (tempC: number, i: number) => boolean, options: { hottest?: boolean; blocked?: Uint8Array } = {},
+): TempExtreme | null {
+  const f = ctx.forecast;
+  const sign = options.hottest ? -1 : 1;
+  let best = Infinity;
+  let at = -1;
+  let hours = 0;
+  for (let i = ctx.i0; i < ctx.i1; i++) {
+    const t = (f[i] as ForecastHour).tempC;
+    if (!hits(t, i)) continue;
+    if (options.blocked) options.blocked[i] = 1;
+    hours += ctx.overlap[i] as number;
+    if (sign * t < best) {
+      best = sign * t;
+      at = i;
+    }
+  }
+  return at < 0 ? null : { tempC: sign * best, at, hours };
+}
+
+/** The coldest hour at or below `atOrBelowC` from the window's start until `untilMs`, for look-ahead rules. */
+export function coldestAhead(ctx: HourContext, untilMs: number, atOrBelowC: number): { tempC: number; at: number; stop: number } | null {
+  if (ctx.i1 <= ctx.i0) return null;
+  const f = ctx.forecast;
+  const stop = indexAtOrAfter(ctx, untilMs, ctx.i0);
+  let coldest = Infinity;
+  let at = -1;
+  for (let i = ctx.i0; i < stop; i++) {
+    const t = tempAt(f, i);
+    if (t <= atOrBelowC && t < coldest) {
+      coldest = t;
+      at = i;
+    }
+  }
+  return at < 0 ? null : { tempC: coldest, at, stop };
+}
+
+/** A temperature reason at the hour `extreme` names. */
+export function tempReason(
+  ctx: HourContext, extreme: { tempC: number; at: number; hours?: number }, reason: Pick<RuleReason, 'ruleId' | 'verdict' | 'threshold' | 'message' | 'source'>,
+): RuleReason {
+  // Spelled out rather than spread: this runs for every reason of every job-day, and a spread copies by iteration.
+  return {
+    ruleId: reason.ruleId,
+    verdict: reason.verdict,
+    threshold: reason.threshold,
+    unit: '°C',
+    observed: extreme.tempC,
+    at: (ctx.forecast[extreme.at] as ForecastHour).time,
+    hours: extreme.hours ?? 0,
+    message: reason.message,
+    source: reason.source,
+  };
+}
+
+/** A look-ahead rule's temperature, checked because a NaN would pass every comparison. */
+export function tempAt(f: readonly ForecastHour[], i: number): number {
+  const t = (f[i] as ForecastHour).tempC;
+  if (!Number.isFinite(t)) throw new RangeError(`forecast[${i}] has a missing or non-numeric tempC`);
+  return t;
+}
+
+/**
+ * Reads the hours the window touches, checking their order and values. Hours outside the
+ * window are parsed only when a look-ahead rule needs them, so their order is the caller's
+ * contract (the API checks it with `assessDayInputSchema`).
+ */
+export function buildContext(
+  forecast: readonly ForecastHour[],
+  windowStart: number,
+  windowEnd: number,
+  settings: RuleSettings,
+): HourContext {
+  const n = forecast.length;
+  if (scratchTimes.length < n) {
+    scratchTimes = new Float64Array(n * 2);
+    scratchOverlap = new Float64Array(n * 2);
+  }
+  const times = scratchTimes;
+  const overlap = scratchOverlap;
+  times.fill(Number.NaN, 0, n);
+  const ctx: HourContext = {
+    forecast,
+    times,
+    i0: 0,
+    i1: 0,
+    overlap,
+    windowStart,
+    windowEnd,
+    windowHours: (windowEnd - windowStart) / HOUR,
+    coveredHours: 0,
+    settings,
+  };
+  // The first hour that could reach into the window starts less than an hour before it.
+  let i = indexAtOrAfter(ctx, windowStart - HOUR + 1);
+  let first = -1;
+  let covered = 0;
+  let prev = i > 0 ? timeAt(ctx, i - 1) : -Infinity;
+  for (; i < n; i++) {
+    const t = timeAt(ctx, i);
+    if (t <= prev) throw new RangeError(`forecast must be in time order without repeats: forecast[${i}] at ${(forecast[i] as ForecastHour).time}`);
+    prev = t;
+    if (t >= windowEnd) break;
+    const h = forecast[i] as ForecastHour;
+    if (
+      !Number.isFinite(h.tempC) || !Number.isFinite(h.windMeanMs) || !Number.isFinite(h.windGustMs) ||
+      !Number.isFinite(h.precipMm) || !Number.isFinite(h.precipProbability)
+    ) {
+      throw new RangeError(`forecast[${i}] at ${h.time} has a missing or non-numeric value`);
+    }
+    // An hour ends at the next reading if that comes sooner, so uneven data never double-counts.
+    const next = i + 1 < n ? Math.min(t + HOUR, timeAt(ctx, i + 1)) : t + HOUR;
+    const ov = (Math.min(next, windowEnd) - Math.max(t, windowStart)) / HOUR;
+    overlap[i] = ov > 0 ? ov : 0;
+    if (ov > 0) {
+      covered += ov;
+      if (first < 0) first = i;
+    }
+  }
+  ctx.i0 = first < 0 ? i : first;
+  ctx.i1 = i;
+  ctx.coveredHours = covered;
+  return ctx;
+}
+
+export function fmt(n: number, dp = 1): string {
+  const s = n.toFixed(dp);
+  return s === '-0.0' || s === '-0' ? s.slice(1) : s;
+}

@@ -1,0 +1,15 @@
+export * from './units.js';
+export * from './dates.js';
+export * from './holidays.js';
+export * from './calendar.js';
+export * from './daylight.js';
+export * from './activities.js';
+export * from './settings.js';
+export * from './sources.js';
+export * from './forecast.js';
+export { windLimitsFor, type WindLimit, type WindStatistic } from './wind-rules.js';
+export { canLayInCold, trendAt, usColdBandFor, usColdBands, type UsColdBand } from './mortar-rules.js';
+export * from './assess-day.js';
+export * from './access.js';
+export * from './costing.js';
+export * from './quantities.js';

@@ -1,0 +1,150 @@
+import { describe, expect, it } from 'vitest';
+import type { Activity, MortarKind } from './activities.js';
+import { assessDay, type DayAssessment } from './assess-day.js';
+import { DAY, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
+import type { RuleReason } from './forecast.js';
+import { canLayInCold, usColdBandFor } from './mortar-rules.js';
+import { defaultRuleSettings, resolveRuleSettings, type RuleSettings } from './settings.js';
+import { fToC, mphToMs } from './units.js';
+
+const ONE_HOUR = { start: '2026-03-02T08:00:00Z', end: '2026-03-02T09:00:00Z' };
+const us = resolveRuleSettings({ practice: 'us' });
+
+/** One working hour at 08:00 with `first`; the 09:00 reading sets the trend. */
+function hourAt(activity: Activity, mortar: MortarKind, first: Partial<HourValues>, next: Partial<HourValues>, settings: RuleSettings = defaultRuleSettings): DayAssessment {
+  const forecast = hourlyForecast(DAY, 72, (h) => (h === 8 ? first : h === 9 ? next : {}));
+  return assessDay({ activities: [{ activity, mortar }], forecast, window: ONE_HOUR, settings });
+}
+
+function dayWith(activity: Activity, at: (h: number) => Partial<HourValues>, settings: RuleSettings = defaultRuleSettings, hours = 72): DayAssessment {
+  return assessDay({ activities: [activity], forecast: hourlyForecast(DAY, hours, at), window: WINDOW, settings });
+}
+
+const find = (d: DayAssessment, id: string): RuleReason | undefined => d.activities[0]?.reasons.find((r) => r.ruleId === id);
+
+describe('UK cold weather for mortar', () => {
+  it.each([
+    ['cement', 3.01, -0.5, 'go'], // Source: NBS F10/185 "at or below 3 °C and falling" (secondary copy)
+    ['cement', 3, -0.5, 'stop'], // Source: NBS F10/185 "at or below 3 °C and falling" (secondary copy)
+    ['cement', 2.99, -0.5, 'stop'], // Source: NBS F10/185 "at or below 3 °C and falling" (secondary copy)
+    ['cement', 3, 0.5, 'go'], // Source: NBS F10/185 "unless at least 1 °C and rising"
+    ['cement', 1.01, 0.5, 'go'], // Source: NBS F10/185; NHBC 2023 §3.2.5 "resume at 1 °C and rising"
+    ['cement', 1, 0.5, 'go'], // Source: NBS F10/185; NHBC 2023 §3.2.5 "resume at 1 °C and rising"
+    ['cement', 0.99, 0.5, 'stop'], // Source: NBS F10/185; NHBC 2023 §3.2.5 "resume at 1 °C and rising"
+    ['cement', 2, 0, 'stop'], // Source: NBS F10/185, a steady 2 °C is neither above 3 °C nor rising
+    ['cement', 3.01, 0, 'go'], // Source: NBS F10/185, above 3 °C
+    ['hydraulic-lime', 5.01, -0.5, 'go'], // Source: NBS F10/185, hydraulic lime: 5 °C falling (secondary copy)
+    ['hydraulic-lime', 5, -0.5, 'stop'], // Source: NBS F10/185, hydraulic lime: 5 °C falling (secondary copy)
+    ['hydraulic-lime', 4.99, -0.5, 'stop'], // Source: NBS F10/185, hydraulic lime: 5 °C falling (secondary copy)
+    ['hydraulic-lime', 3.01, 0.5, 'go'], // Source: NBS F10/185, hydraulic lime: 3 °C rising (secondary copy)
+    ['hydraulic-lime', 3, 0.5, 'go'], // Source: NBS F10/185, hydraulic lime: 3 °C rising (secondary copy)
+    ['hydraulic-lime', 2.99, 0.5, 'stop'], // Source: NBS F10/185, hydraulic lime: 3 °C rising (secondary copy)
+  ] as const)('%s mortar at %f °C, next hour %f °C → %s', (mortar, t, change, expected) => {
+    const day = hourAt('bricklaying', mortar, { tempC: t }, { tempC: t + change });
+    const rule = mortar === 'cement' ? 'cold.mortar.cement' : 'cold.mortar.lime';
+    expect(day.verdict).toBe(expected);
+    if (expected === 'stop') expect(find(day, rule)).toMatchObject({ verdict: 'stop', observed: t, at: '2026-03-02T08:00:00.000Z' });
+    else expect(find(day, rule)).toBeUndefined();
+  });
+
+  it('applies to pointing and rendering as well as bricklaying', () => {
+    // Source: NBS F10/185 covers bedding and pointing; rendering in cement-gauged mortar by the same rule (common practice)
+    for (const a of ['pointing', 'rendering'] as const) {
+      expect(hourAt(a, 'cement', { tempC: 2 }, { tempC: 1.5 }).verdict).toBe('stop');
+    }
+  });
+
+  it('reads the trend at the end of the data from the hour before', () => {
+    expect(canLayInCold(2, 1, 3, 1)).toBe(true);
+    expect(canLayInCold(2, -1, 3, 1)).toBe(false);
+    const forecast = hourlyForecast(DAY, 10, (h) => (h === 8 ? { tempC: 1 } : h === 9 ? { tempC: 2 } : {}));
+    const day = assessDay({ activities: ['bricklaying'], forecast, window: { start: '2026-03-02T09:00:00Z', end: '2026-03-02T10:00:00Z' } });
+    expect(day.verdict).toBe('go');
+  });
+
+  it.each([
+    [0.01, 'none'], // Source: NHBC Standards 2023 §3.2.5, frost protection for up to six days
+    [0, 'caution'], // Source: NHBC Standards 2023 §3.2.5, a forecast at or below 0 °C in that period
+    [-0.01, 'caution'], // Source: NHBC Standards 2023 §3.2.5
+  ] as const)('frost of %f °C two nights after laying → %s with "protect the work"', (t, expected) => {
+    const day = dayWith('bricklaying', (h) => (h === 50 ? { tempC: t } : {}));
+    const r = find(day, 'cold.mortar.frost-protection');
+    if (expected === 'none') expect(r).toBeUndefined();
+    else {
+      expect(r).toMatchObject({ verdict: 'caution', observed: t, at: '2026-03-04T02:00:00.000Z' });
+      expect(r?.message).toMatch(/protect the work/);
+      expect(day.verdict).toBe('caution');
+    }
+  });
+
+  it('looks no further ahead than the six days', () => {
+    // Source: NHBC Standards 2023 §3.2.5, "up to six days"
+    const within = dayWith('pointing', (h) => (h === 8 + 6 * 24 - 1 ? { tempC: -2 } : {}), defaultRuleSettings, 8 * 24);
+    const beyond = dayWith('pointing', (h) => (h === 8 + 6 * 24 ? { tempC: -2 } : {}), defaultRuleSettings, 8 * 24);
+    expect(find(within, 'cold.mortar.frost-protection')).toBeDefined();
+    expect(find(beyond, 'cold.mortar.frost-protection')).toBeUndefined();
+  });
+
+  it.each([
+    [30, 'none'], // Source: NHBC Standards 2022 §6.1.20, concern above 30 °C
+    [30.01, 'caution'], // Source: NHBC Standards 2022 §6.1.20, concern above 30 °C
+  ] as const)('hot weather at %f °C → %s', (t, expected) => {
+    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: t } : {})), 'heat.mortar.uk');
+    if (expected === 'none') expect(r).toBeUndefined();
+    else expect(r?.verdict).toBe('caution');
+  });
+});
+
+describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
+  it.each([
+    [40, null], // Source: TMS 602 — cold-weather provisions below 40 °F (Masonry Magazine Sept 2004, Table 2)
+    [39.99, 1], // Source: TMS 602 band 40–32 °F
+    [32, 1], // Source: TMS 602 band 40–32 °F
+    [31.99, 2], // Source: TMS 602 band 32–25 °F
+    [25, 2], // Source: TMS 602 band 32–25 °F
+    [24.99, 3], // Source: TMS 602 band 25–20 °F
+    [20, 3], // Source: TMS 602 band 25–20 °F
+    [19.99, 4], // Source: TMS 602 band below 20 °F
+  ])('puts %f °F in band %s', (f, band) => {
+    expect(usColdBandFor(fToC(f), us.usColdBelowC)?.band ?? null).toBe(band);
+  });
+
+  it('lists the measures of its band and all the warmer bands', () => {
+    // Source: TMS 602 cold-weather table, the rows are cumulative
+    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: fToC(22) } : {}), us), 'cold.mortar.us-construction');
+    expect(r?.verdict).toBe('caution');
+    expect(r?.message).toMatch(/band 3/);
+    expect(r?.message).toMatch(/heat sand or mixing water/);
+    expect(r?.message).toMatch(/windbreaks/);
+    expect(r?.message).not.toMatch(/enclose and heat/);
+  });
+
+  it.each([
+    [40, 'none'], // Source: TMS 602 protection by mean daily temperature, 40–25 °F cover for 24 h
+    [39.99, 'membrane'], // Source: TMS 602 protection 40–25 °F, weather-resistive membrane 24 h
+    [24.99, 'insulating blankets'], // Source: TMS 602 protection 25–20 °F, insulating blankets 24 h
+    [19.99, 'heated enclosures'], // Source: below 20 °F row — from memory
+  ])('protects new work by a mean daily temperature of %f °F: %s', (f, words) => {
+    const r = find(dayWith('bricklaying', () => ({ tempC: fToC(f) }), us), 'cold.mortar.us-protection');
+    if (words === 'none') expect(r).toBeUndefined();
+    else expect(r?.message).toMatch(new RegExp(words));
+  });
+
+  it.each([
+    [100, 0, 'none'], // Source: TMS 602 hot weather, ambient above 100 °F
+    [100.01, 0, 'caution'], // Source: TMS 602 hot weather, ambient above 100 °F
+    [90.01, 8, 'none'], // Source: TMS 602 hot weather, above 90 °F with wind over 8 mph
+    [90, 8.01, 'none'], // Source: TMS 602 hot weather, above 90 °F with wind over 8 mph
+    [90.01, 8.01, 'caution'], // Source: TMS 602 hot weather, above 90 °F with wind over 8 mph
+  ])('hot weather at %f °F with %f mph wind → %s', (f, mph, expected) => {
+    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: fToC(f), windMeanMs: mphToMs(mph), windGustMs: mphToMs(mph) } : {}), us), 'heat.mortar.us');
+    if (expected === 'none') expect(r).toBeUndefined();
+    else expect(r?.verdict).toBe('caution');
+  });
+
+  it('asks for shade above 115 °F', () => {
+    // Source: TMS 602 hot weather, above 115 °F shade materials and mixer
+    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: fToC(116) } : {}), us), 'heat.mortar.us');
+    expect(r?.message).toMatch(/shade materials and the mixer/);
+  });
+});

@@ -1,0 +1,144 @@
+import type { Activity } from './activities.js';
+import { fmt, type ForecastHour, type HourContext, type RuleReason } from './forecast.js';
+import type { RuleSettings } from './settings.js';
+import { SOURCES } from './sources.js';
+import { beaufortForce, msToMph } from './units.js';
+
+export type WindStatistic = 'mean' | 'gust';
+
+/** One wind limit: judged on the statistic its source names. */
+export interface WindLimit {
+  ruleId: string;
+  stat: WindStatistic;
+  /** At or above this the hour stops; `null` for a caution-only limit. */
+  stopMs: number | null;
+  cautionMs: number;
+  /** HSE's "in excess of 23 mph" is strictly above; the stop limits read "at". */
+  cautionStrictlyAbove: boolean;
+  what: string;
+  stopAdvice: string;
+  source: string;
+  /** Reason text says the law sets no number. */
+  lawNamesNoNumber: boolean;
+}
+
+const DEFER = 'Follow local regulations and the site’s competent person, who may stop work sooner.';
+
+function limit(
+  ruleId: string,
+  stat: WindStatistic,
+  stopMs: number,
+  ratio: number,
+  what: string,
+  stopAdvice: string,
+  source: string,
+  lawNamesNoNumber = false,
+): WindLimit {
+  return { ruleId, stat, stopMs, cautionMs: stopMs * ratio, cautionStrictlyAbove: false, what, stopAdvice, source, lawNamesNoNumber };
+}
+
+export function windLimitsFor(activity: Activity, s: RuleSettings): readonly WindLimit[] {
+  const r = s.windCautionRatio;
+  switch (activity) {
+    case 'mewp':
+      return [limit('wind.mewp.gust', 'gust', s.mewpGustStopMs, r, 'the MEWP rated wind speed', 'lower the platform and stop; check the rating on the machine plate', SOURCES.en280)];
+    case 'tower':
+      return [limit('wind.tower.mean', 'mean', s.towerMeanStopMs, r, 'the mobile tower limit', 'stop work and dismantle the tower or tie it as the manufacturer’s manual says', SOURCES.pasmaTower)];
+    case 'roof-work':
+      return [
+        limit('wind.roof.mean', 'mean', s.roofMeanStopMs, r, 'the roofing limit for slates, tiles and felt', 'stop laying and secure loose materials', SOURCES.nfrcRoof),
+        limit('wind.roof.gust', 'gust', s.roofGustStopMs, r, 'the roofing gust limit for slates, tiles and felt', 'stop laying and secure loose materials', SOURCES.nfrcRoof),
+        {
+          ruleId: 'wind.roof.balance',
+          stat: 'mean',
+          stopMs: null,
+          cautionMs: s.roofBalanceMeanCautionMs,
+          cautionStrictlyAbove: true,
+          what: 'the wind that affects a person’s balance on a roof',
+          stopAdvice: '',
+          source: SOURCES.hseRoofBalance,
+          lawNamesNoNumber: false,
+        },
+      ];
+    case 'sheet-handling':
+      return [
+        limit('wind.sheet.mean', 'mean', s.sheetMeanStopMs, r, 'the limit for sheets over 5 m and large boards', 'stop handling sheets and weigh down or tie stacks', SOURCES.nfrcSheets),
+        limit('wind.sheet.gust', 'gust', s.sheetGustStopMs, r, 'the gust limit for sheets over 5 m and large boards', 'stop handling sheets and weigh down or tie stacks', SOURCES.nfrcSheets),
+      ];
+    case 'work-at-height':
+      return [
+        limit('wind.scaffold-use.gust', 'gust', s.scaffoldUseGustStopMs, r, 'the firm’s limit for working from a scaffold or roof edge', 'come down and clear loose materials from the lifts', SOURCES.scaffoldUse, true),
+        {
+          ruleId: 'wind.scaffold-use.balance',
+          stat: 'mean',
+          stopMs: null,
+          cautionMs: s.scaffoldUseBalanceMeanCautionMs,
+          cautionStrictlyAbove: true,
+          what: 'the wind that affects a person’s balance at an edge',
+          stopAdvice: '',
+          source: SOURCES.hseRoofBalance,
+          lawNamesNoNumber: true,
+        },
+      ];
+    case 'scaffold-erection':
+      return [
+        limit('wind.scaffold-erection.mean', 'mean', s.scaffoldErectionMeanStopMs, r, 'the firm’s limit for erecting, altering or striking scaffold', 'stop erecting and make the partly built scaffold safe as its design says', SOURCES.scaffoldErection, true),
+        limit('wind.scaffold-erection.gust', 'gust', s.scaffoldErectionGustStopMs, r, 'the firm’s gust limit for erecting, altering or striking scaffold', 'stop erecting and make the partly built scaffold safe as its design says', SOURCES.scaffoldErection, true),
+      ];
+    default:
+      return [];
+  }
+}
+
+function speedText(ms: number): string {
+  return `${fmt(ms)} m/s (${fmt(msToMph(ms), 0)} mph)`;
+}
+
+/** Applies one wind limit across the window; marks stopped hours in `blocked`. */
+export function checkWind(ctx: HourContext, w: WindLimit, blocked: Uint8Array, out: RuleReason[]): void {
+  const f = ctx.forecast;
+  const k = ctx.settings.windHeightFactor;
+  const gust = w.stat === 'gust';
+  const stop = w.stopMs ?? Infinity;
+  const caution = w.cautionMs;
+  let worst = -1;
+  let worstAt = -1;
+  let stopHours = 0;
+  let cautionHours = 0;
+  for (let i = ctx.i0; i < ctx.i1; i++) {
+    const h = f[i] as ForecastHour;
+    const v = (gust ? h.windGustMs : h.windMeanMs) * k;
+    if (v >= stop) {
+      blocked[i] = 1;
+      stopHours += ctx.overlap[i] as number;
+    } else if (w.cautionStrictlyAbove ? v > caution : v >= caution) {
+      cautionHours += ctx.overlap[i] as number;
+    } else continue;
+    if (v > worst) {
+      worst = v;
+      worstAt = i;
+    }
+  }
+  if (worstAt < 0) return;
+  const isStop = stopHours > 0;
+  const band = beaufortForce(worst);
+  const statText = gust ? 'Gusts' : 'Mean wind';
+  const scaled = k !== 1 ? ` (forecast × ${fmt(k, 2)} for working height)` : '';
+  const law = w.lawNamesNoNumber ? ' The law names no wind speed (WAHR 2005 reg 4; 29 CFR 1926.451(f)(12)); this is the firm’s threshold.' : '';
+  const threshold = isStop ? stop : caution;
+  const message = isStop
+    ? `${statText} of ${speedText(worst)}${scaled}, force ${band.force} ${band.name.toLowerCase()}, reach ${w.what} of ${speedText(stop)}: ${w.stopAdvice}.${law} ${DEFER}`
+    : `${statText} of ${speedText(worst)}${scaled}, force ${band.force} ${band.name.toLowerCase()}, are near or over ${w.what} of ${speedText(caution)}: take care at edges and secure loose materials.${law} ${DEFER}`;
+  out.push({
+    ruleId: w.ruleId,
+    verdict: isStop ? 'stop' : 'caution',
+    threshold,
+    unit: 'm/s',
+    observed: worst,
+    at: (f[worstAt] as ForecastHour).time,
+    hours: isStop ? stopHours : cautionHours,
+    message,
+    source: w.source,
+    beaufort: { force: band.force, name: band.name },
+  });
+}

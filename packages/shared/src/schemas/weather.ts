@@ -1,0 +1,123 @@
+import { z } from 'zod';
+import { idSchema, isoDateSchema, optionalText } from './common.js';
+
+export const holdReasons = ['wind', 'rain', 'frost-cold', 'heat', 'other'] as const;
+export const holdReasonSchema = z.enum(holdReasons);
+export type HoldReason = z.infer<typeof holdReasonSchema>;
+export const holdReasonLabels: Record<HoldReason, string> = {
+  wind: 'Wind',
+  rain: 'Rain',
+  'frost-cold': 'Frost or cold',
+  heat: 'Heat',
+  other: 'Other',
+};
+
+export const weatherHoldInputSchema = z.object({
+  jobId: idSchema,
+  /** The job-days stood down; each must be one of the job's scheduled days. */
+  dates: z.array(isoDateSchema).min(1, { message: 'Pick at least one day' }).max(30),
+  reason: holdReasonSchema,
+  notes: optionalText(1000),
+  /** Set by the phone so a stand-down queued offline and sent twice is stored once. */
+  idempotencyKey: z.string().trim().min(8).max(80).optional(),
+});
+export type WeatherHoldInput = z.input<typeof weatherHoldInputSchema>;
+export type WeatherHoldValues = z.output<typeof weatherHoldInputSchema>;
+
+export const replanModes = ['push', 'push-and-ripple', 'move-crew', 'none'] as const;
+export const replanSchema = z
+  .object({
+    mode: z.enum(replanModes),
+    /** For move-crew: the crew to take the job. */
+    crewId: idSchema.optional(),
+    /** For move-crew: the day the new crew starts; defaults to the first day stood down. */
+    startDate: isoDateSchema.optional(),
+    version: z.number().int().min(1),
+  })
+  .refine((r) => r.mode !== 'move-crew' || r.crewId, { message: 'Pick the crew to take the job', path: ['crewId'] });
+export type ReplanInput = z.input<typeof replanSchema>;
+export type ReplanValues = z.output<typeof replanSchema>;
+
+export interface ForecastSnapshotHour {
+  time: string;
+  tempC: number;
+  windMeanMs: number;
+  windGustMs: number;
+  precipMm: number;
+  precipProbability: number;
+}
+
+export interface WeatherHoldDto {
+  id: string;
+  jobId: string;
+  jobReference: string;
+  crewId: string | null;
+  dates: string[];
+  reason: HoldReason;
+  notes: string | null;
+  raisedBy: string | null;
+  raisedFrom: 'office' | 'crew';
+  raisedAt: string;
+  status: 'open' | 'replanned' | 'withdrawn';
+  forecastSeen: ForecastSnapshotHour[];
+  version: number;
+}
+
+export interface ReplanMoveDto {
+  jobId: string;
+  reference: string;
+  title: string;
+  clientName: string;
+  fromCrewId: string;
+  toCrewId: string;
+  fromDays: string[];
+  toDays: string[];
+}
+
+export interface ReplanAccessChangeDto {
+  bookingId: string;
+  accessType: string;
+  state: string;
+  fromErect: string | null;
+  fromStrike: string | null;
+  toErect: string;
+  toStrike: string;
+  /** What happens: a requested booking follows; a confirmed one asks the supplier. */
+  effect: 'follows' | 'asks-supplier';
+}
+
+export interface ReplanPreviewDto {
+  holdId: string;
+  mode: ReplanValues['mode'];
+  lostWorkingDays: number;
+  moves: ReplanMoveDto[];
+  accessChanges: ReplanAccessChangeDto[];
+  /** Clients who will be e-mailed their new dates. */
+  clientsToTell: string[];
+  warnings: string[];
+}
+
+export interface DayWeatherDto {
+  assignmentId: string;
+  jobId: string;
+  date: string;
+  verdict: 'go' | 'caution' | 'stop';
+  /** Short reasons for the board's panel; the job page has the full assessment. */
+  reasons: Array<{ activity: string; ruleId: string; verdict: 'go' | 'caution' | 'stop'; message: string; source: string; at: string | null }>;
+  advice: string[];
+  forecastFetchedAt: string | null;
+  isStale: boolean;
+}
+
+export const forecastRefreshSchema = z.object({ siteId: idSchema.optional() });
+
+export interface WeatherOutlookDto {
+  from: string;
+  to: string;
+  days: DayWeatherDto[];
+  atRisk: Array<{ jobId: string; reference: string; date: string; verdict: 'caution' | 'stop'; crewId: string; hasConfirmedAccess: boolean; targetFinish: string | null }>;
+}
+
+export const WEATHER_SAFETY_NOTE =
+  'Weather verdicts are guidance from the forecast, not a permit. The competent person on site decides whether work is safe, following local regulations, the manufacturer\'s limits and readings taken on site.';
+export * from './weather-limits.js';
