@@ -1,0 +1,131 @@
+// Board and live-push benchmark: 30 crews × 13 weeks with 2,000 jobs, each figure beside a floor measured in
+// the same run (a hand-written SQL query; a bare socket.io broadcast). The board is timed cold (a write before each
+// read, so the board cache never answers) and warm (re-reads of an unchanged board). Writes rows to BENCH_RESULTS_FILE.
+import { writeFileSync } from 'node:fs';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { performance } from 'node:perf_hooks';
+import { Server } from 'socket.io';
+import { io as connect, type Socket } from 'socket.io-client';
+import { addDays } from '@hodboard/shared';
+import { attachRealtime } from '../src/realtime/socket-server.js';
+import { ms, openBenchDatabase, quantile, ratio, seedFirm, startApi, time } from './support.js';
+
+const CREWS = 30;
+const JOBS = 2000;
+const WEEKS = 13;
+const RUNS = 40;
+const SOCKETS = 200;
+const MOVES = 20;
+
+const dataSource = await openBenchDatabase();
+const from = '2027-01-04';
+const to = addDays(from, WEEKS * 7 - 1);
+console.log(`seeding ${CREWS} crews, ${JOBS} jobs over ${WEEKS} weeks (${from} to ${to})…`);
+// Mostly one- and two-day jobs back to back per crew, as a small firm's board is; the last run past the
+// 13 weeks, so the board shows the ones in range.
+const firm = await seedFirm(dataSource, { name: 'Bench Masonry', crews: CREWS, jobs: JOBS, from, clients: 1, lengthOf: (j) => (j % 4 === 3 ? 2 : 1) });
+const { firmId, crewIds, assignmentIds } = firm;
+const api = await startApi(dataSource, firm, '2027-01-01T08:00:00Z');
+const { server, base, headers, token } = api;
+attachRealtime(server, api.services.auth, api.services.events, api.deps.logger);
+
+console.log('board endpoint…');
+let rows = 0;
+const readBoard = async () => {
+  const res = await fetch(`${base}/api/board?from=${from}&to=${to}`, { headers });
+  const body = (await res.json()) as { assignments: unknown[] };
+  rows = body.assignments.length;
+};
+// Cold: a board-affecting write (untimed) before every read, so each read misses the board cache and is built afresh.
+// The written job moves between two days past the range, so every read returns the same cards.
+const churnId = assignmentIds[assignmentIds.length - 1]!;
+let churnVersion = 1;
+const churn = async () => {
+  const res = await fetch(`${base}/api/assignments/${churnId}`, {
+    method: 'PUT', headers, body: JSON.stringify({ crewId: crewIds[0], startDate: addDays(to, 14 + (churnVersion % 2) * 7), workingDays: 1, version: churnVersion, confirmDoubleBooking: true }),
+  });
+  churnVersion = ((await res.json()) as { assignment: { version: number } }).assignment.version;
+};
+const cold: number[] = [];
+await churn();
+await readBoard();
+for (let i = 0; i < RUNS; i += 1) {
+  await churn();
+  const start = performance.now();
+  await readBoard();
+  cold.push(performance.now() - start);
+}
+// Warm: the same board read again with no write between, answered from the cache.
+const warm = await time(readBoard, RUNS);
+const floorSql = `SELECT a.id, a.job_id, a.crew_id, a.start_date, a.working_days, a.days, a.version, j.reference, j.title, j.status, c.name AS client_name, s.address_line1, s.town, s.postcode
+  FROM assignment a JOIN job j ON j.id = a.job_id JOIN client c ON c.id = j.client_id JOIN site s ON s.id = j.site_id
+  WHERE a.firm_id = $1 AND a.start_date <= $3 AND a.end_date >= $2 ORDER BY a.crew_id, a.start_date`;
+const floor = await time(() => dataSource.query(floorSql, [firmId, from, to]), RUNS);
+console.log(`  ${rows} assignments per board response`);
+
+console.log(`move → push at ${SOCKETS} sockets…`);
+const sockets: Socket[] = [];
+for (let i = 0; i < SOCKETS; i += 1) {
+  const socket = connect(base, { auth: { token }, transports: ['websocket'], reconnection: false });
+  await new Promise<void>((resolve, reject) => {
+    socket.once('connect', () => resolve());
+    socket.once('connect_error', reject);
+  });
+  sockets.push(socket);
+}
+const pushSamples: number[] = [];
+const versions = new Map<string, number>();
+for (let m = 0; m < MOVES; m += 1) {
+  const id = assignmentIds[m]!;
+  const version = versions.get(id) ?? 1;
+  const arrivals = sockets.map((socket) => new Promise<number>((resolve) => socket.once('schedule:changed', () => resolve(performance.now()))));
+  const start = performance.now();
+  const res = await fetch(`${base}/api/assignments/${id}`, {
+    method: 'PUT', headers, body: JSON.stringify({ crewId: crewIds[m % CREWS], startDate: addDays(from, 7 * (m % 12)), workingDays: 1, version, confirmDoubleBooking: true }),
+  });
+  const body = (await res.json()) as { assignment: { version: number } };
+  versions.set(id, body.assignment.version);
+  for (const arrived of await Promise.all(arrivals)) pushSamples.push(arrived - start);
+}
+for (const socket of sockets) socket.disconnect();
+
+// Floor: a bare socket.io server broadcasting the same sized payload to the same number of clients.
+const bare = createServer();
+const bareIo = new Server(bare);
+await new Promise<void>((resolve) => bare.listen(0, '127.0.0.1', resolve));
+const bareUrl = `http://127.0.0.1:${(bare.address() as AddressInfo).port}`;
+const bareSockets: Socket[] = [];
+for (let i = 0; i < SOCKETS; i += 1) {
+  const socket = connect(bareUrl, { transports: ['websocket'], reconnection: false });
+  await new Promise<void>((resolve) => socket.once('connect', () => resolve()));
+  bareSockets.push(socket);
+}
+const barePayload = { eventId: 1, type: 'assignment:moved', change: { padding: 'x'.repeat(1500) } };
+const bareSamples: number[] = [];
+for (let m = 0; m < MOVES; m += 1) {
+  const arrivals = bareSockets.map((socket) => new Promise<number>((resolve) => socket.once('schedule:changed', () => resolve(performance.now()))));
+  const start = performance.now();
+  bareIo.emit('schedule:changed', barePayload);
+  for (const arrived of await Promise.all(arrivals)) bareSamples.push(arrived - start);
+}
+for (const socket of bareSockets) socket.disconnect();
+await bareIo.close();
+
+const floorP95 = ms(quantile(floor, 0.95));
+const pushP95 = ms(quantile(pushSamples, 0.95));
+const boardTarget = (p95: number) => (p95 <= 2 * floorP95 && p95 <= 50 ? 'yes' : 'NO');
+const coldP95 = ms(quantile(cold, 0.95));
+const warmP95 = ms(quantile(warm, 0.95));
+const results = [
+  { figure: `board p50, cold: a write before each read (${CREWS} crews × ${WEEKS} weeks, ${JOBS} jobs), ms`, hodboard: ms(quantile(cold, 0.5)), floor: ms(quantile(floor, 0.5)), target: '—', met: '' },
+  { figure: 'board p95, cold: a write before each read, ms', hodboard: coldP95, floor: floorP95, target: '≤ 2× floor and ≤ 50', met: boardTarget(coldP95) },
+  { figure: 'board p50, warm: unchanged board from the cache, ms', hodboard: ms(quantile(warm, 0.5)), floor: ms(quantile(floor, 0.5)), target: '—', met: '' },
+  { figure: 'board p95, warm: unchanged board from the cache, ms', hodboard: warmP95, floor: floorP95, target: '≤ 2× floor and ≤ 50', met: boardTarget(warmP95) },
+  { figure: `move → push p95 (${SOCKETS} sockets), ms`, hodboard: pushP95, floor: ms(quantile(bareSamples, 0.95)), target: '≤ 100', met: pushP95 <= 100 ? 'yes' : 'NO' },
+].map((row) => ({ ...row, ratio: ratio(row.hodboard, row.floor) }));
+console.table(results);
+if (process.env.BENCH_RESULTS_FILE) writeFileSync(process.env.BENCH_RESULTS_FILE, JSON.stringify(results));
+await api.close();
+await dataSource.destroy();
+process.exit(0);

@@ -1,0 +1,2 @@
+export type Clock = () => Date;
+export const systemClock: Clock = () => new Date();

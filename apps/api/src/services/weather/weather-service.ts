@@ -1,0 +1,418 @@
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import {
+  accessWindowFor,
+  activitiesForJob,
+  assessDay,
+  daylight,
+  firmRuleSettings,
+  planReplan,
+  workingWindow,
+  can,
+  type DayWeatherDto,
+  type RuleSettings,
+  type PlacedSpan,
+  type ReplanPreviewDto,
+  type ReplanValues,
+  type WeatherHoldDto,
+  type WeatherHoldValues,
+  type WeatherLimitOverrides,
+  type WeatherLimitsDto,
+  type WeatherOutlookDto,
+} from '@hodboard/shared';
+import { AccessBooking, Assignment, Client, Crew, Firm, FirmWeatherLimits, Job, Notification, Site, User, WeatherHold } from '../../entities/index.js';
+import { errors } from '../../errors.js';
+import type { Clock } from '../../lib/clock.js';
+import type { EventBus } from '../../lib/event-bus.js';
+import { todayIn } from '../../lib/today.js';
+import type { AfterCommit } from '../access-service.js';
+import { requirePermission, type Actor } from '../actor.js';
+import { recordAudit } from '../audit-service.js';
+import { escapeHtml } from '../auth-service.js';
+import { loadCalendars, type FirmCalendars } from '../calendar-service.js';
+import { assertVersion, FirmScope } from '../firm-scope.js';
+import type { Mailer } from '../mailer.js';
+import type { JobSiteInfo, PlacedAssignment, ScheduleService } from '../schedule-service.js';
+import { formatAddress } from '../site-service.js';
+import type { ForecastService } from './forecast-service.js';
+
+const HOUR = 3_600_000;
+
+export class WeatherService {
+  private schedule?: ScheduleService;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly forecasts: ForecastService,
+    private readonly mailer: Mailer,
+    private readonly events: EventBus,
+    private readonly clock: Clock,
+  ) {}
+
+  /** The schedule service and this one use each other; the app wires the loop once at start-up. */
+  attachSchedule(schedule: ScheduleService): void {
+    this.schedule = schedule;
+  }
+
+  /**
+   * The verdict of each placed job-day that has a forecast: the job's activities assessed over the firm's
+   * working hours cut to daylight at the site. Days past the forecast have no entry.
+   */
+  async dayVerdicts(
+    manager: EntityManager, firmId: string, assignments: PlacedAssignment[], calendars: FirmCalendars, siteOfJob?: Map<string, string>,
+  ): Promise<DayWeatherDto[]> {
+    if (assignments.length === 0) return [];
+    let first = assignments[0]!.days[0]!;
+    let last = first;
+    for (const a of assignments) {
+      for (const day of a.days) {
+        if (day < first) first = day;
+        if (day > last) last = day;
+      }
+    }
+    const from = new Date(Date.parse(`${first}T00:00:00Z`) - 12 * HOUR);
+    const to = new Date(Date.parse(`${last}T00:00:00Z`) + 9 * 24 * HOUR);
+    // Knowing each job's site, the rest of what the rules read is fetched only for the jobs whose site has a forecast.
+    let jobById = siteOfJob ? null : await this.jobSiteInfo(manager, firmId, assignments);
+    const siteIds = [...new Set(siteOfJob ? siteOfJob.values() : [...jobById!.values()].map((job) => job.siteId))];
+    const forecasts = await this.forecasts.forSites(manager, siteIds, from, to);
+    if (siteOfJob) {
+      const forecastJobs = assignments.filter((a) => (forecasts.get(siteOfJob.get(a.jobId) ?? '')?.hours.length ?? 0) > 0);
+      if (forecastJobs.length === 0) return [];
+      jobById = await this.jobSiteInfo(manager, firmId, forecastJobs);
+    }
+    const jobs = jobById!;
+    const siteById = new Map([...jobs.values()].map((job) => [job.siteId, { id: job.siteId, hazards: job.hazards, lat: job.lat, lon: job.lon }]));
+    // Read on every call, never kept: a change to the firm's limits shows on the next board read.
+    const settings = await this.settingsFor(manager, firmId);
+    const { firm } = calendars;
+    const result: DayWeatherDto[] = [];
+    for (const assignment of assignments) {
+      const job = jobs.get(assignment.jobId);
+      const site = job ? siteById.get(job.siteId) : undefined;
+      const forecast = site ? forecasts.get(site.id) : undefined;
+      if (!job || !site || !forecast || forecast.hours.length === 0) continue;
+      const lime = /\blime\b/i.test(`${site.hazards ?? ''} ${job.description ?? ''} ${job.title}`);
+      const activities = activitiesForJob(job.workTypes, job.accessNeeds, lime ? 'hydraulic-lime' : 'cement');
+      if (activities.length === 0) continue;
+      const lastHour = Date.parse(forecast.hours[forecast.hours.length - 1]!.time);
+      for (const date of assignment.days) {
+        const light = site.lat !== null && site.lon !== null ? { times: daylight(date, site.lat, site.lon) } : undefined;
+        const window = workingWindow(date, { start: firm.dayStart, end: firm.dayEnd }, firm.timeZone, light);
+        if (!window || Date.parse(window.end) > lastHour + HOUR) continue;
+        const startMs = Date.parse(window.start);
+        const hours = forecast.hours.filter((h) => Date.parse(h.time) >= startMs - HOUR);
+        if (hours.length === 0 || Date.parse(hours[0]!.time) > startMs) continue;
+        const assessment = assessDay({ activities, forecast: hours, window, settings });
+        result.push({
+          assignmentId: assignment.id,
+          jobId: assignment.jobId,
+          date,
+          verdict: assessment.verdict,
+          reasons: assessment.activities.flatMap((a) =>
+            a.reasons.map((r) => ({ activity: a.activity, ruleId: r.ruleId, verdict: r.verdict, message: r.message, source: r.source, at: r.at })),
+          ),
+          advice: [...new Set(assessment.activities.flatMap((a) => [...a.advice]))],
+          forecastFetchedAt: forecast.fetchedAt?.toISOString() ?? null,
+          isStale: forecast.isStale,
+        });
+      }
+    }
+    return result;
+  }
+
+  /** The thresholds a firm's verdicts are worked out with: the defaults with its own limits on top. */
+  async settingsFor(manager: EntityManager, firmId: string): Promise<RuleSettings> {
+    const row = await manager.findOneBy(FirmWeatherLimits, { firmId });
+    return firmRuleSettings(row?.overrides).settings;
+  }
+
+  async limits(actor: Actor): Promise<WeatherLimitsDto> {
+    requirePermission(actor, 'jobs:manage');
+    return toLimitsDto(await this.dataSource.manager.findOneBy(FirmWeatherLimits, { firmId: actor.firmId }));
+  }
+
+  /** Replaces the firm's own limits: a key left out goes back to its default. */
+  async updateLimits(actor: Actor, input: { overrides: WeatherLimitOverrides; version: number }): Promise<WeatherLimitsDto> {
+    requirePermission(actor, 'firm:manage');
+    const saved = await this.dataSource.transaction(async (manager) => {
+      const existing = await manager.findOne(FirmWeatherLimits, { where: { firmId: actor.firmId }, lock: { mode: 'pessimistic_write' } });
+      // Version 0 means "never saved": a second first save is stale like any other (the primary key refuses it).
+      assertVersion(existing ?? { version: 0 }, input.version, 'The weather limits');
+      const before = existing ? { ...existing.overrides } : {};
+      const row = existing ?? manager.create(FirmWeatherLimits, { firmId: actor.firmId });
+      row.overrides = { ...input.overrides };
+      row.updatedBy = actor.userId;
+      const result = await manager.save(row);
+      await recordAudit(manager, actor, { entity: 'weather-limits', entityId: actor.firmId, action: existing ? 'updated' : 'created', before, after: result.overrides });
+      return result;
+    });
+    this.events.publish({ firmId: actor.firmId, type: 'weather-limits:updated', id: actor.firmId, version: saved.version });
+    return toLimitsDto(saved);
+  }
+
+  private async jobSiteInfo(manager: EntityManager, firmId: string, assignments: PlacedAssignment[]): Promise<Map<string, JobSiteInfo>> {
+    const rows = (await manager.query(
+      `SELECT j.id, j.site_id, j.work_types, j.access_needs, j.title, j.description, s.hazards, s.lat, s.lon
+         FROM job j JOIN site s ON s.id = j.site_id WHERE j.firm_id = $1 AND j.id = ANY($2::uuid[])`,
+      [firmId, [...new Set(assignments.map((a) => a.jobId))]],
+    )) as Array<{ id: string; site_id: string; work_types: Job['workTypes']; access_needs: Job['accessNeeds']; title: string; description: string | null; hazards: string | null; lat: number | null; lon: number | null }>;
+    return new Map(rows.map((row) => [row.id, {
+      id: row.id, siteId: row.site_id, workTypes: row.work_types, accessNeeds: row.access_needs, title: row.title,
+      description: row.description, hazards: row.hazards, lat: row.lat, lon: row.lon,
+    }]));
+  }
+
+  async outlook(actor: Actor, days = 7): Promise<WeatherOutlookDto> {
+    requirePermission(actor, 'jobs:read');
+    const manager = this.dataSource.manager;
+    const calendars = await loadCalendars(manager, actor.firmId);
+    const from = todayIn(calendars.timeZone, this.clock());
+    const to = new Date(Date.parse(`${from}T00:00:00Z`) + (days - 1) * 24 * HOUR).toISOString().slice(0, 10);
+    const scope = new FirmScope(manager, actor.firmId);
+    const query = scope.query(Assignment, 'a').andWhere('a.start_date <= :to AND a.end_date >= :from', { from, to });
+    if (!can(actor.role, 'jobs:manage')) query.andWhere('a.crew_id IN (:...crews)', { crews: actor.crewIds.length ? actor.crewIds : ['00000000-0000-0000-0000-000000000000'] });
+    const assignments = await query.getMany();
+    const verdicts = (await this.dayVerdicts(manager, actor.firmId, assignments, calendars)).filter((d) => d.date >= from && d.date <= to);
+    const jobs = await scope.find(Job, { where: { id: In(assignments.map((a) => a.jobId).concat(['00000000-0000-0000-0000-000000000000'])) } });
+    const confirmed = await scope.query(AccessBooking, 'b').andWhere("b.state IN ('confirmed', 'erected')").getMany();
+    return {
+      from, to, days: verdicts,
+      atRisk: verdicts.filter((d) => d.verdict !== 'go').map((d) => {
+        const job = jobs.find((j) => j.id === d.jobId);
+        return {
+          jobId: d.jobId, reference: job?.reference ?? '', date: d.date, verdict: d.verdict as 'caution' | 'stop',
+          crewId: assignments.find((a) => a.id === d.assignmentId)?.crewId ?? '',
+          hasConfirmedAccess: confirmed.some((b) => b.jobIds.includes(d.jobId)), targetFinish: job?.targetFinish ?? null,
+        };
+      }),
+    };
+  }
+
+  async listHolds(actor: Actor, query: { jobId?: string; status?: string }): Promise<WeatherHoldDto[]> {
+    requirePermission(actor, 'jobs:read');
+    const builder = new FirmScope(this.dataSource.manager, actor.firmId).query(WeatherHold, 'h').orderBy('h.raised_at', 'DESC').take(200);
+    if (query.jobId) builder.andWhere('h.job_id = :jobId', { jobId: query.jobId });
+    if (query.status) builder.andWhere('h.status = :status', { status: query.status });
+    if (!can(actor.role, 'jobs:manage')) builder.andWhere('h.crew_id IN (:...crews)', { crews: actor.crewIds.length ? actor.crewIds : ['00000000-0000-0000-0000-000000000000'] });
+    return this.toDtos(this.dataSource.manager, await builder.getMany());
+  }
+
+  /**
+   * Stands job-days down. A crew lead may do it for their own crew's jobs; the job shows as stood down until the
+   * office re-plans. The same idempotency key twice returns the first hold, so an offline retry is stored once.
+   */
+  async raise(actor: Actor, input: WeatherHoldValues): Promise<{ hold: WeatherHoldDto; created: boolean }> {
+    requirePermission(actor, 'holds:raise');
+    const result = await this.dataSource.transaction(async (manager) => {
+      const scope = new FirmScope(manager, actor.firmId);
+      if (input.idempotencyKey) {
+        const existing = await scope.find(WeatherHold, { where: { idempotencyKey: input.idempotencyKey } });
+        if (existing[0]) return { hold: existing[0], created: false };
+      }
+      const job = await scope.lockForUpdate(Job, input.jobId, 'Job');
+      const assignment = await manager.findOneBy(Assignment, { jobId: job.id, firmId: actor.firmId });
+      if (!assignment) throw errors.illegalTransition(`${job.reference} is not on the board, so there is nothing to stand down.`);
+      if (!can(actor.role, 'jobs:manage') && !actor.crewIds.includes(assignment.crewId)) throw errors.notFound('Job');
+      const notOnJob = input.dates.filter((date) => !assignment.days.includes(date));
+      if (notOnJob.length) throw errors.validation([{ path: 'dates', message: `Not a day of ${job.reference}: ${notOnJob.join(', ')}` }]);
+      const site = await manager.findOneByOrFail(Site, { id: job.siteId });
+      const dates = [...new Set(input.dates)].sort();
+      const from = new Date(Date.parse(`${dates[0]}T00:00:00Z`));
+      const to = new Date(Date.parse(`${dates[dates.length - 1]}T23:59:59Z`));
+      const forecast = (await this.forecasts.forSites(manager, [site.id], from, to)).get(site.id);
+      const hold = await manager.save(scope.create(WeatherHold, {
+        jobId: job.id, crewId: assignment.crewId, dates, reason: input.reason, notes: input.notes, raisedBy: actor.userId,
+        raisedFrom: can(actor.role, 'jobs:manage') ? 'office' : 'crew', status: 'open',
+        forecastSeen: forecast?.hours ?? [], idempotencyKey: input.idempotencyKey ?? null,
+      }));
+      const before = job.status;
+      if (job.status === 'scheduled' || job.status === 'on-site') {
+        job.status = 'stood-down';
+        await manager.save(job);
+      }
+      await recordAudit(manager, actor, {
+        entity: 'job', entityId: job.id, action: 'stood-down',
+        before: { status: before }, after: { status: job.status, dates, reason: input.reason },
+      });
+      return { hold, created: true };
+    });
+    if (result.created) {
+      this.events.publish({ firmId: actor.firmId, type: 'hold:raised', id: result.hold.id, version: result.hold.version, crewIds: result.hold.crewId ? [result.hold.crewId] : [] });
+    }
+    return { hold: (await this.toDtos(this.dataSource.manager, [result.hold]))[0]!, created: result.created };
+  }
+
+  async preview(actor: Actor, holdId: string, input: ReplanValues): Promise<ReplanPreviewDto> {
+    requirePermission(actor, 'holds:replan');
+    const manager = this.dataSource.manager;
+    const hold = await new FirmScope(manager, actor.firmId).get(WeatherHold, holdId, 'Stand-down');
+    return this.buildPreview(manager, actor, hold, input);
+  }
+
+  /**
+   * Commits a re-plan in one transaction. The moves are planned from the state read here and applied only if
+   * every job is still at the version planned from and the stand-down is still open, so of two re-plans at once
+   * one wins and the other gets 409.
+   */
+  async commit(actor: Actor, holdId: string, input: ReplanValues): Promise<ReplanPreviewDto> {
+    requirePermission(actor, 'holds:replan');
+    if (!this.schedule) throw new Error('weather service used before the schedule was attached');
+    const manager = this.dataSource.manager;
+    const hold = await new FirmScope(manager, actor.firmId).get(WeatherHold, holdId, 'Stand-down');
+    assertVersion(hold, input.version, 'This stand-down');
+    if (hold.status !== 'open') throw errors.conflict('This stand-down has already been re-planned.');
+    const preview = await this.buildPreview(manager, actor, hold, input);
+    const { plan, spans } = await this.plan(manager, actor, hold, input);
+    await this.schedule.applyMoves(
+      actor,
+      plan.moves.map((m) => ({ assignmentId: m.assignmentId, crewId: m.toCrewId, startDate: m.startDate, workingDays: m.workingDays, expectedVersion: spans.get(m.assignmentId)!.version })),
+      async (tx) => {
+        const current = await new FirmScope(tx, actor.firmId).lockForUpdate(WeatherHold, holdId, 'Stand-down');
+        assertVersion(current, input.version, 'This stand-down');
+        if (current.status !== 'open') throw errors.conflict('This stand-down has already been re-planned.');
+        current.status = 'replanned';
+        await tx.save(current);
+        const job = await tx.findOneByOrFail(Job, { id: current.jobId, firmId: actor.firmId });
+        if (job.status === 'stood-down' && input.mode !== 'none') {
+          job.status = 'scheduled';
+          await tx.save(job);
+        }
+        await recordAudit(tx, actor, { entity: 'job', entityId: current.jobId, action: 'replanned', after: { mode: input.mode, moves: plan.moves.length } });
+        return this.clientMails(tx, actor, holdId, preview);
+      },
+      'replanned',
+    );
+    this.events.publish({ firmId: actor.firmId, type: 'hold:replanned', id: holdId });
+    return preview;
+  }
+
+  async summary(actor: Actor): Promise<{ byJob: Array<{ jobId: string; days: number }>; byCrew: Array<{ crewId: string; days: number }> }> {
+    requirePermission(actor, 'jobs:manage');
+    const rows = await new FirmScope(this.dataSource.manager, actor.firmId)
+      .query(WeatherHold, 'h')
+      .select('h.job_id', 'jobId')
+      .addSelect('h.crew_id', 'crewId')
+      .addSelect('SUM(cardinality(h.dates))::int', 'days')
+      .andWhere("h.status <> 'withdrawn'")
+      .groupBy('h.job_id')
+      .addGroupBy('h.crew_id')
+      .getRawMany<{ jobId: string; crewId: string | null; days: number }>();
+    const byCrew = new Map<string, number>();
+    for (const row of rows) if (row.crewId) byCrew.set(row.crewId, (byCrew.get(row.crewId) ?? 0) + row.days);
+    return { byJob: rows.map((r) => ({ jobId: r.jobId, days: r.days })), byCrew: [...byCrew].map(([crewId, days]) => ({ crewId, days })) };
+  }
+
+  private async plan(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues) {
+    const scope = new FirmScope(manager, actor.firmId);
+    const calendars = await loadCalendars(manager, actor.firmId);
+    const target = await manager.findOneBy(Assignment, { jobId: hold.jobId, firmId: actor.firmId });
+    if (!target) throw errors.conflict('The job stood down is no longer on the board.');
+    if (input.mode === 'move-crew' && input.crewId) await scope.get(Crew, input.crewId, 'Crew');
+    const later = await scope.query(Assignment, 'a').andWhere('a.crew_id = :crewId AND a.start_date >= :start', { crewId: target.crewId, start: target.startDate }).getMany();
+    const jobs = await scope.find(Job, { where: { id: In([target.jobId, ...later.map((a) => a.jobId)]) } });
+    const earliest = new Map(jobs.map((j) => [j.id, j.earliestStart]));
+    const toSpan = (a: Assignment): PlacedSpan => ({
+      assignmentId: a.id, jobId: a.jobId, crewId: a.crewId, startDate: a.startDate, workingDays: a.workingDays, days: a.days, earliestStart: earliest.get(a.jobId) ?? null,
+    });
+    const plan = planReplan({
+      target: toSpan(target), heldDates: hold.dates, mode: input.mode, laterOnCrew: later.map(toSpan),
+      calendarFor: (crewId) => calendars.forCrew(crewId), toCrewId: input.crewId, startDate: input.startDate,
+    });
+    return { plan, spans: new Map([target, ...later].map((a) => [a.id, a])), jobs, calendars };
+  }
+
+  private async buildPreview(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues): Promise<ReplanPreviewDto> {
+    const { plan, jobs, calendars } = await this.plan(manager, actor, hold, input);
+    const clients = await manager.find(Client, { where: { id: In(jobs.map((j) => j.clientId)) } });
+    const bookings = await new FirmScope(manager, actor.firmId)
+      .query(AccessBooking, 'b')
+      .andWhere('b.job_ids && :jobIds::uuid[]', { jobIds: plan.moves.map((m) => m.jobId).concat(['00000000-0000-0000-0000-000000000000']) })
+      .andWhere("b.state IN ('requested', 'confirmed', 'erected')")
+      .getMany();
+    const accessChanges = bookings.flatMap((booking) => {
+      const days = booking.jobIds.flatMap((jobId) => plan.moves.find((m) => m.jobId === jobId)?.toDays ?? []).sort();
+      if (days.length === 0) return [];
+      const window = accessWindowFor(days, { calendar: calendars.firmCalendar, erectLeadWorkingDays: 1, curingDays: booking.curingDays });
+      const fromErect = booking.confirmedErect ?? booking.requestedErect;
+      const fromStrike = booking.confirmedStrike ?? booking.requestedStrike;
+      if (fromErect === window.erectBy && fromStrike === window.strikeFrom) return [];
+      return [{
+        bookingId: booking.id, accessType: booking.accessType, state: booking.state, fromErect, fromStrike,
+        toErect: booking.state === 'erected' ? booking.erectedOn ?? window.erectBy : window.erectBy, toStrike: window.strikeFrom,
+        effect: booking.state === 'requested' ? ('follows' as const) : ('asks-supplier' as const),
+      }];
+    });
+    const warnings: string[] = [];
+    if (input.mode === 'move-crew' && plan.moves[0]) {
+      const clash = await new FirmScope(manager, actor.firmId).query(Assignment, 'a')
+        .andWhere('a.crew_id = :crewId AND a.days && :days::date[] AND a.job_id <> :jobId', { crewId: plan.moves[0].toCrewId, days: plan.moves[0].toDays, jobId: hold.jobId })
+        .getCount();
+      if (clash) warnings.push('The other crew already has work on some of these days: committing books them twice.');
+    }
+    if (plan.lostWorkingDays === 0) warnings.push('None of the days stood down are working days of this job; nothing moves.');
+    return {
+      holdId: hold.id, mode: input.mode, lostWorkingDays: plan.lostWorkingDays,
+      moves: plan.moves.map((m) => {
+        const job = jobs.find((j) => j.id === m.jobId)!;
+        return {
+          jobId: m.jobId, reference: job.reference, title: job.title, clientName: clients.find((c) => c.id === job.clientId)?.name ?? '',
+          fromCrewId: m.fromCrewId, toCrewId: m.toCrewId, fromDays: [...m.fromDays], toDays: m.toDays,
+        };
+      }),
+      accessChanges,
+      clientsToTell: [...new Set(plan.moves.map((m) => clients.find((c) => c.id === jobs.find((j) => j.id === m.jobId)?.clientId)).filter((c) => c?.email).map((c) => c!.name))],
+      warnings,
+    };
+  }
+
+  /** One e-mail per client per moved job per re-plan; the notification key makes a resend impossible. */
+  private async clientMails(manager: EntityManager, actor: Actor, holdId: string, preview: ReplanPreviewDto): Promise<AfterCommit[]> {
+    const firm = await manager.findOneByOrFail(Firm, { id: actor.firmId });
+    const tasks: AfterCommit[] = [];
+    // Read and claimed for all the moved jobs at once: a re-plan can move hundreds. The dedupe key makes a second commit
+    // of the same plan claim nothing, so nobody is told twice.
+    const jobs = await manager.find(Job, { where: { id: In(preview.moves.map((m) => m.jobId)), firmId: actor.firmId }, relations: { client: true, site: true } });
+    const jobById = new Map(jobs.map((job) => [job.id, job]));
+    const toTell = preview.moves.filter((move) => jobById.get(move.jobId)?.client.email);
+    const claimed = new Set<string>();
+    if (toTell.length > 0) {
+      const inserted = await manager.createQueryBuilder().insert().into(Notification)
+        .values(toTell.map((move) => ({ firmId: actor.firmId, dedupeKey: `replan:${holdId}:${move.jobId}`, channel: 'email', recipient: jobById.get(move.jobId)!.client.email! })))
+        .orIgnore().returning('dedupe_key').execute();
+      for (const row of inserted.raw as Array<{ dedupe_key: string }>) claimed.add(row.dedupe_key);
+    }
+    for (const move of toTell) {
+      const job = jobById.get(move.jobId)!;
+      if (!claimed.has(`replan:${holdId}:${job.id}`)) continue;
+      const first = move.toDays[0]!;
+      const last = move.toDays[move.toDays.length - 1]!;
+      const when = (d: string) => new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', timeZone: 'UTC' }).format(new Date(`${d}T12:00:00Z`));
+      const address = formatAddress(job.site);
+      const text = `Dear ${job.client.contactName ?? job.client.name},\n\nThe weather has stopped work on ${job.title.toLowerCase()} at ${address} (our ref ${job.reference}).\n\nWe now plan to start on ${when(first)}${first === last ? '' : ` and expect to finish on ${when(last)}`}. We will keep you posted if the forecast changes again.\n\nWith thanks for your patience,\n${firm.name}${firm.phone ? `\n${firm.phone}` : ''}`;
+      tasks.push(() => this.mailer.send({
+        to: job.client.email!,
+        subject: `New dates for your job ${job.reference}`,
+        text,
+        html: text.split('\n\n').map((p) => `<p>${escapeHtml(p).replaceAll('\n', '<br>')}</p>`).join(''),
+      }));
+    }
+    return tasks;
+  }
+
+  private async toDtos(manager: EntityManager, holds: WeatherHold[]): Promise<WeatherHoldDto[]> {
+    if (holds.length === 0) return [];
+    const jobs = await manager.find(Job, { where: { id: In(holds.map((h) => h.jobId)) }, select: { id: true, reference: true } });
+    const users = await manager.find(User, { where: { id: In(holds.map((h) => h.raisedBy).filter((v): v is string => Boolean(v)).concat(['00000000-0000-0000-0000-000000000000'])) } });
+    return holds.map((hold) => ({
+      id: hold.id, jobId: hold.jobId, jobReference: jobs.find((j) => j.id === hold.jobId)?.reference ?? '', crewId: hold.crewId, dates: hold.dates,
+      reason: hold.reason, notes: hold.notes, raisedBy: users.find((u) => u.id === hold.raisedBy)?.name ?? null, raisedFrom: hold.raisedFrom,
+      raisedAt: hold.raisedAt.toISOString(), status: hold.status, forecastSeen: hold.forecastSeen, version: hold.version,
+    }));
+  }
+}
+
+
+function toLimitsDto(row: FirmWeatherLimits | null): WeatherLimitsDto {
+  const { settings, overrides, ignored } = firmRuleSettings(row?.overrides);
+  return { overrides, effective: settings, ignored, version: row?.version ?? 0, updatedAt: row?.updatedAt.toISOString() ?? null };
+}

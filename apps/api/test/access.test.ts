@@ -1,0 +1,427 @@
+import request from 'supertest';
+import sharp from 'sharp';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import type { AccessBookingDto, BoardDto, PhotoDto, ScaffoldInspectionDto } from '@hodboard/shared';
+import { ForecastHourRow, ScaffoldInspection } from '../src/entities/index.js';
+import { scenarioHours } from '../src/fakes/weather-scenarios.js';
+import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+import { binaryParser, pdfText } from './quotes-helpers.js';
+
+let h: Harness;
+let owner: SignedIn;
+let ids: Awaited<ReturnType<typeof populateFirm>>;
+let supplierId: string;
+
+// populateFirm places its job on 2027-03-01 for 3 working days: Mon 1 – Wed 3 March 2027.
+beforeEach(async () => {
+  h = await createHarness();
+  h.now.value = new Date('2027-02-01T09:00:00Z');
+  await truncateAll(h.dataSource);
+  owner = await signUpFirm(h, 'Gorse Hill Builders', 'owner@gorse.example');
+  ids = await populateFirm(h, owner);
+  // Each test makes its own booking with its own supplier; the one populateFirm made is set aside.
+  await request(h.app).post(`/api/access-bookings/${ids.bookingId}/state`).set(owner.auth).send({ state: 'cancelled', version: 1 }).expect(200);
+  const supplier = await request(h.app).post('/api/suppliers').set(owner.auth)
+    .send({ name: 'Lofty Poles Scaffolding', contactName: 'Dana', email: 'hire@loftypoles.example', leadTimeWorkingDays: 3, minimumWeeks: 2, weeklyRates: { scaffold: 18_000 } })
+    .expect(201);
+  supplierId = supplier.body.id;
+});
+afterAll(async () => {
+  await h.dataSource.destroy();
+});
+
+const book = () => request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId], accessType: 'scaffold', supplierId }).expect(201);
+const moveJob = async (startDate: string, workingDays = 3) => {
+  const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+  return request(h.app).put(`/api/assignments/${job.body.assignment.id}`).set(owner.auth)
+    .send({ crewId: ids.crewId, startDate, workingDays, version: job.body.assignment.version }).expect(200);
+};
+const bookingNow = async (id: string) => (await request(h.app).get(`/api/access-bookings/${id}`).set(owner.auth).expect(200)).body as AccessBookingDto;
+const linkToken = () => {
+  const mail = h.mailer.lastTo('hire@loftypoles.example');
+  const match = mail && /supplier-response\?token=([A-Za-z0-9_%-]+)/.exec(mail.text);
+  if (!match?.[1]) throw new Error('no supplier link mailed');
+  return decodeURIComponent(match[1]);
+};
+
+describe('a booking that is only requested', () => {
+  it('takes the window the job needs: up the working day before, down the working day after', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    // Source: accessWindowFor (erect one working day before the first job day, strike the working day after the last).
+    expect(booking).toMatchObject({ state: 'requested', requestedErect: '2027-02-26', requestedStrike: '2027-03-04', weeklyRate: 18_000, minimumWeeks: 2 });
+  });
+
+  it('follows the job when it moves, without mailing the supplier', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await moveJob('2027-03-10');
+    expect(await bookingNow(booking.id)).toMatchObject({ requestedErect: '2027-03-09', requestedStrike: '2027-03-15', pendingChange: null });
+    expect(h.mailer.outbox.filter((m) => m.to === 'hire@loftypoles.example')).toHaveLength(0);
+  });
+});
+
+describe('a confirmed booking', () => {
+  async function confirmed(): Promise<AccessBookingDto> {
+    const booking = (await book()).body as AccessBookingDto;
+    const res = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    return res.body as AccessBookingDto;
+  }
+
+  it('raises exactly one change request and one e-mail when the job moves, and the link accepts once', async () => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    const mails = h.mailer.outbox.filter((m) => m.to === 'hire@loftypoles.example');
+    expect(mails).toHaveLength(1);
+    expect(mails[0]!.text).toContain('up 2027-02-26, down 2027-03-04');
+    expect(mails[0]!.text).toContain('up 2027-03-09, down 2027-03-15');
+    const pending = await bookingNow(booking.id);
+    expect(pending.pendingChange).toMatchObject({ status: 'pending', newErect: '2027-03-09', newStrike: '2027-03-15' });
+    expect(pending.confirmedErect).toBe('2027-02-26');
+
+    const token = linkToken();
+    const seen = await request(h.app).get(`/api/public/supplier-links/${token}`).expect(200);
+    expect(seen.body).toMatchObject({ firmName: 'Gorse Hill Builders', supplierName: 'Lofty Poles Scaffolding', newErect: '2027-03-09', status: 'pending' });
+    await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'accept' }).expect(200);
+    expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15', pendingChange: null });
+    const again = await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'accept' }).expect(401);
+    expect(again.body.code).toBe('token-invalid');
+  });
+
+  it('does not mail again when the job moves back to dates already asked for', async () => {
+    await confirmed();
+    await moveJob('2027-03-10');
+    await moveJob('2027-03-10', 3);
+    expect(h.mailer.outbox.filter((m) => m.to === 'hire@loftypoles.example')).toHaveLength(1);
+  });
+
+  it("takes the supplier's counter-proposal as the booking's dates", async () => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    await request(h.app).post(`/api/public/supplier-links/${linkToken()}`)
+      .send({ answer: 'propose', erectDate: '2027-03-08', strikeDate: '2027-03-16', note: 'Crew free Monday only' }).expect(200);
+    const after = await bookingNow(booking.id);
+    expect(after).toMatchObject({ confirmedErect: '2027-03-08', confirmedStrike: '2027-03-16' });
+    expect(after.pendingChange).toMatchObject({ status: 'countered', supplierNote: 'Crew free Monday only' });
+  });
+
+  it('refuses the link once it has expired', async () => {
+    await confirmed();
+    await moveJob('2027-03-10');
+    h.now.value = new Date('2027-02-20T09:00:00Z');
+    const res = await request(h.app).get(`/api/public/supplier-links/${linkToken()}`).expect(401);
+    expect(res.body.code).toBe('token-expired');
+  });
+
+  it('refuses a made-up link and shows nothing of any firm', async () => {
+    const res = await request(h.app).get(`/api/public/supplier-links/${'x'.repeat(43)}`).expect(401);
+    expect(JSON.stringify(res.body)).not.toContain('Gorse');
+  });
+
+  it('flags the job days outside the confirmed window on the board', async () => {
+    await confirmed();
+    await moveJob('2027-03-03', 3);
+    const board = (await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-12' }).set(owner.auth).expect(200)).body as BoardDto;
+    expect(board.conflicts.filter((c) => c.kind === 'outside-access-window').map((c) => c.date)).toEqual(['2027-03-04', '2027-03-05']);
+    expect(board.accessBands).toEqual([expect.objectContaining({ accessType: 'scaffold', erect: '2027-02-26', strike: '2027-03-04', state: 'confirmed' })]);
+  });
+});
+
+describe('hire cost', () => {
+  it('charges part weeks as whole weeks and never less than the minimum', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    // 26 Feb → 4 Mar is 6 days on hire: one part week, raised to the 2-week minimum. Source: hireCost (part weeks up, minimum weeks).
+    expect(booking.hire).toMatchObject({ hireDays: 6, chargedWeeks: 2, pence: 36_000, pricedWeeks: 2, overPricedPence: 0 });
+    await moveJob('2027-03-01', 12);
+    const longer = await bookingNow(booking.id);
+    // 26 Feb → 17 Mar is 19 days: three weeks, one more than priced.
+    expect(longer.hire).toMatchObject({ hireDays: 19, chargedWeeks: 3, overPricedPence: 18_000 });
+    const board = (await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-19' }).set(owner.auth).expect(200)).body as BoardDto;
+    expect(board.conflicts.find((c) => c.kind === 'hire-extended')?.message).toContain('£180.00 extra');
+  });
+});
+
+describe('inspections', () => {
+  async function erected(): Promise<AccessBookingDto> {
+    const booking = (await book()).body as AccessBookingDto;
+    const c = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    h.now.value = new Date('2027-02-26T15:00:00Z');
+    const e = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: c.body.version }).expect(200);
+    return e.body as AccessBookingDto;
+  }
+  const boardOn = async () => (await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-05' }).set(owner.auth).expect(200)).body as BoardDto;
+
+  it('makes an uninspected scaffold a stop for the day of work at height', async () => {
+    const booking = await erected();
+    // Source: Work at Height Regulations 2005 reg 12: inspect after assembly, before first use.
+    expect(booking.inspection).toMatchObject({ status: 'due', nextDue: '2027-02-26' });
+    h.now.value = new Date('2027-03-01T07:30:00Z');
+    const stop = (await boardOn()).conflicts.find((c) => c.kind === 'inspection-overdue');
+    expect(stop).toMatchObject({ severity: 'stop', date: '2027-03-01' });
+    expect(stop!.message).toMatch(/competent person/);
+  });
+
+  it('clears the stop once a safe inspection is recorded, and asks again within seven days', async () => {
+    const booking = await erected();
+    await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth)
+      .send({ inspectedAt: '2027-02-26T14:30:00Z', inspectorName: 'R. Quayle (Lofty Poles)', result: 'safe' }).expect(201);
+    h.now.value = new Date('2027-03-01T07:30:00Z');
+    expect((await boardOn()).conflicts.filter((c) => c.severity === 'stop')).toEqual([]);
+    // Source: WAHR 2005 reg 12: at intervals of no more than 7 days.
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'ok', nextDue: '2027-03-05', lastInspectedOn: '2027-02-26' });
+  });
+
+  it('keeps work at height stopped after an inspection that found the scaffold unsafe', async () => {
+    const booking = await erected();
+    await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth)
+      .send({ inspectedAt: '2027-02-26T14:30:00Z', inspectorName: 'R. Quayle', result: 'unsafe', defects: 'Missing toe board, lift 2' }).expect(201);
+    h.now.value = new Date('2027-03-01T07:30:00Z');
+    expect((await boardOn()).conflicts.find((c) => c.kind === 'inspection-overdue')).toMatchObject({ severity: 'stop' });
+  });
+
+  it('asks for the defects when the result is unsafe', async () => {
+    const booking = await erected();
+    const res = await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth)
+      .send({ inspectedAt: '2027-02-26T14:30:00Z', inspectorName: 'R. Quayle', result: 'unsafe' }).expect(400);
+    expect(res.body.errors[0].path).toBe('defects');
+  });
+});
+
+describe('inspections over a whole hire', () => {
+  // A 25-working-day job from Mon 7 June 2027 (no bank holidays until 30 August): scaffold up by Fri 4 June,
+  // down from Mon 12 July, so about five and a half weeks on hire. Europe/London is on BST (UTC+1) throughout.
+  const GALE_DAY = '2027-06-15';
+
+  async function upForTheJob(): Promise<AccessBookingDto> {
+    await moveJob('2027-06-07', 25);
+    const booking = (await book()).body as AccessBookingDto;
+    expect(booking).toMatchObject({ requestedErect: '2027-06-04', requestedStrike: '2027-07-12' });
+    const c = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    h.now.value = new Date('2027-06-04T14:00:00Z');
+    const e = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: c.body.version }).expect(200);
+    return e.body as AccessBookingDto;
+  }
+
+  /** Stored forecast hours for the site: the fake's calm week every day, and its gale on one day (local midnight to midnight). */
+  async function storeForecasts(galeDays: string[]): Promise<void> {
+    const firmId = owner.session.firm.id;
+    const from = Date.parse('2027-06-03T23:00:00Z');
+    const hours = scenarioHours('calm-week', 53.8, -1.55, from, 40 * 24).map((hour) => {
+      const localDay = new Date(Date.parse(hour.time) + 3_600_000).toISOString().slice(0, 10);
+      if (!galeDays.includes(localDay)) return hour;
+      return scenarioHours('gale', 53.8, -1.55, Date.parse(hour.time), 1)[0]!;
+    });
+    await h.dataSource.getRepository(ForecastHourRow).insert(hours.map((hour) => ({
+      siteId: ids.siteId, firmId, time: new Date(hour.time), tempC: hour.tempC, windMeanMs: hour.windMeanMs, windGustMs: hour.windGustMs,
+      precipMm: hour.precipMm, precipProbability: hour.precipProbability, fetchedAt: new Date('2027-06-03T06:00:00Z'),
+    })));
+  }
+
+  const inspect = (bookingId: string, at: string, extra: object = {}) =>
+    request(h.app).post(`/api/access-bookings/${bookingId}/inspections`).set(owner.auth).send({ inspectedAt: at, inspectorName: 'Tamsin Orr (Lofty Poles)', result: 'safe', ...extra });
+  const boardAround = async (from: string, to: string) => (await request(h.app).get('/api/board').query({ from, to }).set(owner.auth).expect(200)).body as BoardDto;
+
+  it('inspection due dates over a 5-week hire with one windy day', async () => {
+    await storeForecasts([GALE_DAY]);
+    const booking = await upForTheJob();
+    // Source: WAHR 2005 reg 12 — after assembly, before first use (secondary copy).
+    // The gale is 11 days off, beyond the 8 days or so a forecast reaches, so it does not count yet.
+    expect(booking.inspection).toMatchObject({ status: 'due', nextDue: '2027-06-04', reasons: ['after-assembly'], adverseDays: [] });
+    h.now.value = new Date('2027-06-04T15:00:00Z');
+    await inspect(booking.id, '2027-06-04T14:45:00Z').expect(201);
+
+    const seen: Array<[string, string[]]> = [];
+    for (;;) {
+      const status = (await bookingNow(booking.id)).inspection;
+      if (!status.nextDue || status.nextDue >= '2027-07-12') break;
+      seen.push([status.nextDue, status.reasons]);
+      // Inspected first thing on the day it falls due, before anyone goes up.
+      h.now.value = new Date(`${status.nextDue}T06:30:00Z`);
+      expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'due', nextDue: status.nextDue });
+      await inspect(booking.id, `${status.nextDue}T06:15:00Z`).expect(201);
+    }
+    expect(seen).toEqual([
+      // Source: WAHR 2005 reg 12 — within the previous 7 days (secondary copy).
+      ['2027-06-11', ['within-7-days']],
+      // Source: WAHR 2005 reg 12 — after adverse weather: the gale of Tue 15 June (fake's gale scenario, gusts 28 m/s
+      // against the 18 m/s scaffold-use stop, SOURCES.scaffoldUse) brings it forward from 18 June to the day after.
+      ['2027-06-16', ['after-adverse-weather']],
+      ['2027-06-23', ['within-7-days']],
+      ['2027-06-30', ['within-7-days']],
+      ['2027-07-07', ['within-7-days']],
+    ]);
+    const records = (await request(h.app).get(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth).expect(200)).body as ScaffoldInspectionDto[];
+    expect(records).toHaveLength(6);
+    expect((await bookingNow(booking.id)).inspection.adverseDays).toEqual([GALE_DAY]);
+  });
+
+  it('makes the work-at-height day after a missed post-gale inspection a stop conflict', async () => {
+    await storeForecasts([GALE_DAY]);
+    const booking = await upForTheJob();
+    h.now.value = new Date('2027-06-04T15:00:00Z');
+    await inspect(booking.id, '2027-06-04T14:45:00Z').expect(201);
+    h.now.value = new Date('2027-06-11T06:30:00Z');
+    await inspect(booking.id, '2027-06-11T06:15:00Z').expect(201);
+
+    // On the gale day itself the 11 June inspection still stands; the next is due the day after.
+    h.now.value = new Date('2027-06-15T12:00:00Z');
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'ok', nextDue: '2027-06-16', reasons: ['after-adverse-weather'] });
+    expect((await boardAround('2027-06-14', '2027-06-18')).conflicts.filter((c) => c.kind === 'inspection-overdue')).toEqual([
+      expect.objectContaining({ severity: 'warning', date: '2027-06-16' }),
+    ]);
+
+    // Nobody inspected on the 16th: on the 17th it is overdue and work at height stops.
+    h.now.value = new Date('2027-06-17T06:30:00Z');
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'overdue', nextDue: '2027-06-16', lastInspectedOn: '2027-06-11' });
+    const stop = (await boardAround('2027-06-14', '2027-06-18')).conflicts.find((c) => c.kind === 'inspection-overdue');
+    expect(stop).toMatchObject({ severity: 'stop', date: '2027-06-17' });
+    expect(stop!.message).toMatch(/overdue \(2027-06-16\).*competent person/);
+    const band = (await boardAround('2027-06-14', '2027-06-18')).accessBands[0];
+    expect(band).toMatchObject({ inspection: 'overdue' });
+  });
+
+  it('counts a day stood down for wind as adverse weather too', async () => {
+    const booking = await upForTheJob();
+    h.now.value = new Date('2027-06-04T15:00:00Z');
+    await inspect(booking.id, '2027-06-04T14:45:00Z').expect(201);
+    h.now.value = new Date('2027-06-08T07:00:00Z');
+    await request(h.app).post('/api/weather-holds').set(owner.auth).send({ jobId: ids.jobId, dates: ['2027-06-08'], reason: 'wind' }).expect(201);
+    await request(h.app).post('/api/weather-holds').set(owner.auth).send({ jobId: ids.jobId, dates: ['2027-06-09'], reason: 'rain' }).expect(201);
+    // Source: WAHR 2005 reg 12 — after adverse weather (secondary copy); a rain stand-down is not a wind event.
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'ok', nextDue: '2027-06-09', reasons: ['after-adverse-weather'], adverseDays: ['2027-06-08'] });
+  });
+
+  it("judges the wind by the firm's own limit for working from a scaffold, as its board does", async () => {
+    await storeForecasts([]);
+    // The fake's calm week gusts to 6 m/s from 09:00 to 18:00; with the firm's limit at 5.5 m/s every day is a wind stop.
+    await request(h.app).put('/api/weather/limits').set(owner.auth).send({ overrides: { scaffoldUseGustStopMs: 5.5 }, version: 0 }).expect(200);
+    const booking = await upForTheJob();
+    h.now.value = new Date('2027-06-04T15:00:00Z');
+    await inspect(booking.id, '2027-06-04T14:45:00Z').expect(201);
+    // Source: WAHR 2005 reg 12 — after adverse weather (secondary copy); the wind of the inspection day itself may have come after it.
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'ok', nextDue: '2027-06-05', reasons: ['after-adverse-weather'] });
+  });
+
+  it('leaves the seven-day interval alone when the wind stays below the stop limits', async () => {
+    await storeForecasts([]);
+    const booking = await upForTheJob();
+    h.now.value = new Date('2027-06-04T15:00:00Z');
+    await inspect(booking.id, '2027-06-04T14:45:00Z').expect(201);
+    // Source: WAHR 2005 reg 12 — within the previous 7 days (secondary copy).
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'ok', nextDue: '2027-06-11', adverseDays: [] });
+  });
+});
+
+describe('inspection photos', () => {
+  const jpeg = () => sharp({ create: { width: 900, height: 600, channels: 3, background: '#8b5a2b' } }).jpeg().toBuffer();
+  const upload = async (who: SignedIn, jobId: string) =>
+    (await request(h.app).post('/api/photos').set(who.auth).field('jobId', jobId).field('caption', 'Lift 2 toe board')
+      .attach('photo', await jpeg(), { filename: 'lift2.jpg', contentType: 'image/jpeg' }).expect(201)).body as PhotoDto;
+
+  async function erectedNow(): Promise<AccessBookingDto> {
+    const booking = (await book()).body as AccessBookingDto;
+    const c = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    h.now.value = new Date('2027-02-26T15:00:00Z');
+    return (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: c.body.version }).expect(200)).body as AccessBookingDto;
+  }
+
+  it("keeps a crew lead's photos with the inspection, with thumbnails from the photo service", async () => {
+    const booking = await erectedNow();
+    const lead = await addPerson(h, owner, 'crew-lead', 'lead@gorse.example');
+    const people = (await request(h.app).get('/api/people').set(owner.auth).expect(200)).body as Array<{ id: string; email: string }>;
+    const leadMember = people.find((p) => p.email === 'lead@gorse.example')!.id;
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ name: 'Gable crew', colour: '#445566', leadMemberId: leadMember, memberIds: [leadMember] }).expect(200);
+
+    const photos = [await upload(lead, ids.jobId), await upload(lead, ids.jobId)];
+    const res = await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(lead.auth)
+      .send({ inspectedAt: '2027-02-26T14:40:00Z', inspectorName: 'Crew lead', result: 'unsafe', defects: 'Toe board missing on lift 2', photoIds: photos.map((p) => p.id) })
+      .expect(201);
+    const saved = res.body as ScaffoldInspectionDto;
+    expect(saved.photos.map((p) => p.id)).toEqual(photos.map((p) => p.id));
+    const thumb = await request(h.app).get(saved.photos[0]!.thumbUrl).buffer(true).parse(binaryParser).expect(200);
+    expect(thumb.headers['content-type']).toBe('image/webp');
+    expect((await sharp(thumb.body as Buffer).metadata()).width).toBeLessThanOrEqual(480);
+
+    const listed = (await request(h.app).get(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth).expect(200)).body as ScaffoldInspectionDto[];
+    expect(listed[0]).toMatchObject({ result: 'unsafe', recordedBy: 'crew-lead person', keepUntil: null, isDiscardable: false });
+    expect(listed[0]!.photos).toHaveLength(2);
+  });
+
+  it("refuses a photo from a job the booking does not cover, and records nothing", async () => {
+    const booking = await erectedNow();
+    const other = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Garden wall', workTypes: ['repairs'], estimatedWorkingDays: 1 }).expect(201);
+    const stray = await upload(owner, other.body.id);
+    const res = await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth)
+      .send({ inspectedAt: '2027-02-26T14:40:00Z', inspectorName: 'R. Quayle', result: 'safe', photoIds: [stray.id] }).expect(400);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body.errors[0]).toMatchObject({ path: 'photoIds' });
+    expect(await h.dataSource.getRepository(ScaffoldInspection).count()).toBe(0);
+  });
+});
+
+describe('inspection records: export and retention', () => {
+  async function withRecords(): Promise<AccessBookingDto> {
+    const booking = (await book()).body as AccessBookingDto;
+    const c = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    h.now.value = new Date('2027-02-26T15:00:00Z');
+    const e = await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: c.body.version }).expect(200);
+    await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth)
+      .send({ inspectedAt: '2027-02-26T14:50:00Z', inspectorName: 'R. Quayle (Lofty Poles)', result: 'safe', notes: 'Handover inspection' }).expect(201);
+    h.now.value = new Date('2027-03-02T08:00:00Z');
+    await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(owner.auth)
+      .send({ inspectedAt: '2027-03-02T07:40:00Z', inspectorName: 'Mags Ellery', result: 'unsafe', defects: 'Tie at lift 3 loosened', notes: 'Supplier called back' }).expect(201);
+    return e.body as AccessBookingDto;
+  }
+  const strike = async (bookingId: string, on: string) => {
+    h.now.value = new Date(`${on}T15:00:00Z`);
+    const now = await bookingNow(bookingId);
+    await request(h.app).post(`/api/access-bookings/${bookingId}/state`).set(owner.auth).send({ state: 'struck', version: now.version }).expect(200);
+  };
+  const records = async (bookingId: string) => (await request(h.app).get(`/api/access-bookings/${bookingId}/inspections`).set(owner.auth).expect(200)).body as ScaffoldInspectionDto[];
+
+  it('exports the records as a PDF with the firm, site, booking, each record and the safety caution', async () => {
+    const booking = await withRecords();
+    const res = await request(h.app).get(`/api/access-bookings/${booking.id}/inspections/pdf`).set(owner.auth).buffer(true).parse(binaryParser).expect(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    expect(res.headers['content-disposition']).toMatch(/attachment; filename="inspections-.+-scaffold\.pdf"/);
+    const text = await pdfText(res.body as Buffer);
+    for (const expected of ['Gorse Hill Builders', '2 Sheepwash Lane, Lowmoor, LM3 9QD', 'Repoint barn gable', 'Scaffold from Lofty Poles Scaffolding',
+      'R. Quayle (Lofty Poles)', 'Safe to use', 'Handover inspection', 'Mags Ellery', 'NOT SAFE TO USE', 'Tie at lift 3 loosened', 'Supplier called back',
+      'competent, trained people', 'follow your local regulations']) {
+      expect(text).toContain(expected);
+    }
+    // Times in the firm's zone: 14:50 UTC on 26 Feb is 14:50 GMT.
+    expect(text).toMatch(/26 February 2027,? (at )?14:50/);
+  });
+
+  it('gives another firm 404 on the PDF and the discard', async () => {
+    const booking = await withRecords();
+    const other = await signUpFirm(h, 'Thistle Walls', 'owner@thistle.example');
+    const [record] = await records(booking.id);
+    await request(h.app).get(`/api/access-bookings/${booking.id}/inspections/pdf`).set(other.auth).expect(404);
+    await request(h.app).delete(`/api/access-bookings/${booking.id}/inspections/${record!.id}`).set(other.auth).expect(404);
+  });
+
+  it('refuses to discard records while the scaffold is up and for 3 months after it is struck, then allows it', async () => {
+    const booking = await withRecords();
+    const [latest] = await records(booking.id);
+    const up = await request(h.app).delete(`/api/access-bookings/${booking.id}/inspections/${latest!.id}`).set(owner.auth).expect(409);
+    expect(up.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(up.body).toMatchObject({ code: 'conflict', keepUntil: null });
+    expect(up.body.detail).toMatch(/as long as the access is up/);
+
+    await strike(booking.id, '2027-03-05');
+    // Source: WAHR 2005 reg 12(6) — kept until the work is complete, then for 3 months (secondary copy).
+    expect((await records(booking.id)).map((r) => [r.keepUntil, r.isDiscardable])).toEqual([['2027-06-05', false], ['2027-06-05', false]]);
+    h.now.value = new Date('2027-06-05T12:00:00Z');
+    const inside = await request(h.app).delete(`/api/access-bookings/${booking.id}/inspections/${latest!.id}`).set(owner.auth).expect(409);
+    expect(inside.body).toMatchObject({ code: 'conflict', keepUntil: '2027-06-05' });
+    expect(await records(booking.id)).toHaveLength(2);
+
+    const lead = await addPerson(h, owner, 'crew-lead', 'lead@gorse.example');
+    h.now.value = new Date('2027-06-06T08:00:00Z');
+    expect((await records(booking.id)).every((r) => r.isDiscardable)).toBe(true);
+    await request(h.app).delete(`/api/access-bookings/${booking.id}/inspections/${latest!.id}`).set(lead.auth).expect(403);
+    await request(h.app).delete(`/api/access-bookings/${booking.id}/inspections/${latest!.id}`).set(owner.auth).expect(204);
+    expect((await records(booking.id)).map((r) => r.inspectorName)).toEqual(['R. Quayle (Lofty Poles)']);
+  });
+});

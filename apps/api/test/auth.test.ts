@@ -1,0 +1,159 @@
+import jwt from 'jsonwebtoken';
+import request from 'supertest';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import { addPerson, countRows, createHarness, inviteTokenFrom, PASSWORD, signIn, signUpFirm, TEST_SECRET, truncateAll, type Harness } from './harness.js';
+
+let h: Harness;
+
+beforeEach(async () => {
+  h = await createHarness();
+  await truncateAll(h.dataSource);
+});
+afterAll(async () => {
+  await h.dataSource.destroy();
+});
+
+function refreshCookie(res: request.Response): string {
+  const cookies = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
+  const cookie = cookies.find((value) => value.startsWith('hb_refresh='));
+  if (!cookie) throw new Error('no refresh cookie set');
+  return cookie.split(';')[0]!;
+}
+
+describe('sign-up, sign-in, refresh and sign-out', () => {
+  it('walks a new firm through the whole session life cycle', async () => {
+    const signUp = await request(h.app)
+      .post('/api/auth/sign-up')
+      .send({ firmName: 'Pennine Stoneworks', ownerName: 'Ada Crowther', email: 'Ada@Pennine.example', password: PASSWORD })
+      .expect(201);
+    expect(signUp.body).toMatchObject({ role: 'owner', firm: { name: 'Pennine Stoneworks' }, user: { email: 'ada@pennine.example' } });
+    const setCookie = ([] as string[]).concat(signUp.headers['set-cookie'] ?? []).join(';');
+    expect(setCookie).toMatch(/HttpOnly/i);
+    expect(setCookie).toMatch(/SameSite=Strict/i);
+
+    const signInRes = await request(h.app).post('/api/auth/sign-in').send({ email: 'ada@pennine.example', password: PASSWORD }).expect(200);
+    const me = await request(h.app).get('/api/auth/me').set('Authorization', `Bearer ${signInRes.body.accessToken}`).expect(200);
+    expect(me.body.firm.name).toBe('Pennine Stoneworks');
+
+    const cookie = refreshCookie(signInRes);
+    const refreshed = await request(h.app).post('/api/auth/refresh').set('Cookie', cookie).expect(200);
+    expect(refreshed.body.accessToken).toEqual(expect.any(String));
+    // Refresh tokens rotate: the one just spent is refused.
+    await request(h.app).post('/api/auth/refresh').set('Cookie', cookie).expect(401);
+
+    const current = refreshCookie(refreshed);
+    await request(h.app).post('/api/auth/sign-out').set('Cookie', current).expect(204);
+    const after = await request(h.app).post('/api/auth/refresh').set('Cookie', current).expect(401);
+    expect(after.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(after.body.code).toBe('unauthenticated');
+  });
+
+  it('returns 409 and writes nothing when the e-mail already has an account', async () => {
+    await signUpFirm(h, 'First Firm', 'taken@example.org');
+    const before = await countRows(h.dataSource);
+    const res = await request(h.app)
+      .post('/api/auth/sign-up')
+      .send({ firmName: 'Second Firm', ownerName: 'Someone', email: 'taken@example.org', password: PASSWORD })
+      .expect(409);
+    expect(res.body).toMatchObject({ status: 409, code: 'already-exists' });
+    expect(await countRows(h.dataSource)).toEqual(before);
+  });
+
+  it('refuses a wrong password and an unknown e-mail with the same answer', async () => {
+    await signUpFirm(h, 'Firm', 'real@example.org');
+    const wrong = await request(h.app).post('/api/auth/sign-in').send({ email: 'real@example.org', password: 'not-the-password' }).expect(401);
+    const unknown = await request(h.app).post('/api/auth/sign-in').send({ email: 'nobody@example.org', password: 'not-the-password' }).expect(401);
+    expect(wrong.body.code).toBe('bad-credentials');
+    expect(unknown.body).toEqual(wrong.body);
+  });
+});
+
+describe('access tokens', () => {
+  it('refuses an expired token', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    const claims = jwt.decode(owner.token) as Record<string, unknown>;
+    const expired = jwt.sign({ sub: claims.sub, mid: claims.mid, fid: claims.fid, exp: Math.floor(Date.now() / 1000) - 60 }, TEST_SECRET);
+    const res = await request(h.app).get('/api/crews').set('Authorization', `Bearer ${expired}`).expect(401);
+    expect(res.body.code).toBe('token-expired');
+  });
+
+  it('refuses a token whose payload was altered', async () => {
+    const owner = await signUpFirm(h, 'Firm A', 'a@example.org');
+    const other = await signUpFirm(h, 'Firm B', 'b@example.org');
+    const [header, , signature] = owner.token.split('.');
+    const otherPayload = other.token.split('.')[1];
+    const res = await request(h.app).get('/api/crews').set('Authorization', `Bearer ${header}.${otherPayload}.${signature}`).expect(401);
+    expect(res.body.code).toBe('token-invalid');
+  });
+
+  it('refuses a token signed with another key', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    const claims = jwt.decode(owner.token) as Record<string, unknown>;
+    const forged = jwt.sign({ sub: claims.sub, mid: claims.mid, fid: claims.fid }, 'some-other-secret-some-other-secret');
+    await request(h.app).get('/api/crews').set('Authorization', `Bearer ${forged}`).expect(401);
+  });
+
+  it('asks for sign-in when no token is sent', async () => {
+    const res = await request(h.app).get('/api/clients').expect(401);
+    expect(res.body).toMatchObject({ code: 'unauthenticated', status: 401, type: '/problems/unauthenticated' });
+  });
+
+  it('stops a removed person at once, even with an unexpired token', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    const office = await addPerson(h, owner, 'office', 'office@example.org');
+    await request(h.app).get('/api/clients').set(office.auth).expect(200);
+    const people = await request(h.app).get('/api/people').set(owner.auth).expect(200);
+    const officeMember = (people.body as Array<{ id: string; email: string }>).find((p) => p.email === 'office@example.org')!;
+    await request(h.app).delete(`/api/people/${officeMember.id}`).set(owner.auth).expect(204);
+    await request(h.app).get('/api/clients').set(office.auth).expect(401);
+  });
+});
+
+describe('invitations and password resets', () => {
+  it('accepts an invitation once and refuses the same link again', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/people/invite').set(owner.auth).send({ email: 'new@example.org', name: 'New Person', role: 'operative' }).expect(201);
+    const token = inviteTokenFrom(h.mailer, 'new@example.org');
+    const accepted = await request(h.app).post('/api/auth/accept-invite').send({ token, name: 'New Person', password: PASSWORD }).expect(200);
+    expect(accepted.body.role).toBe('operative');
+    const again = await request(h.app).post('/api/auth/accept-invite').send({ token, name: 'Intruder', password: 'Another-pass-99' }).expect(401);
+    expect(again.body.code).toBe('token-invalid');
+    await signIn(h, 'new@example.org', PASSWORD);
+  });
+
+  it('resets a password once; the old password and the used link stop working', async () => {
+    await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/auth/forgot-password').send({ email: 'owner@example.org' }).expect(202);
+    const token = inviteTokenFrom(h.mailer, 'owner@example.org', 'reset-password');
+    await request(h.app).post('/api/auth/reset-password').send({ token, password: 'Brand-new-pass-7' }).expect(204);
+    await request(h.app).post('/api/auth/reset-password').send({ token, password: 'Third-pass-777' }).expect(401);
+    await request(h.app).post('/api/auth/sign-in').send({ email: 'owner@example.org', password: PASSWORD }).expect(401);
+    await signIn(h, 'owner@example.org', 'Brand-new-pass-7');
+  });
+
+  it('refuses a reset link after it has expired', async () => {
+    await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/auth/forgot-password').send({ email: 'owner@example.org' }).expect(202);
+    const token = inviteTokenFrom(h.mailer, 'owner@example.org', 'reset-password');
+    h.now.value = new Date(h.now.value.getTime() + 2 * 3_600_000);
+    const res = await request(h.app).post('/api/auth/reset-password').send({ token, password: 'Brand-new-pass-7' }).expect(401);
+    expect(res.body.code).toBe('token-expired');
+  });
+
+  it('answers a reset request for an unknown e-mail the same way and sends nothing', async () => {
+    const res = await request(h.app).post('/api/auth/forgot-password').send({ email: 'ghost@example.org' }).expect(202);
+    expect(res.body.detail).toMatch(/If an account uses this e-mail/);
+    expect(h.mailer.outbox).toHaveLength(0);
+  });
+});
+
+describe('rate limits', () => {
+  it('answers 429 problem JSON once the sign-in attempts run out', async () => {
+    const limited = await createHarness({ authAttemptsPerWindow: 3 });
+    const attempt = () => request(limited.app).post('/api/auth/sign-in').send({ email: 'x@example.org', password: 'wrong-password' });
+    for (let i = 0; i < 3; i += 1) expect((await attempt()).status).toBe(401);
+    const blocked = await attempt();
+    expect(blocked.status).toBe(429);
+    expect(blocked.body.code).toBe('rate-limited');
+  });
+});

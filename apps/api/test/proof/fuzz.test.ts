@@ -1,0 +1,198 @@
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import querystring from 'node:querystring';
+import fc from 'fast-check';
+import { pino } from 'pino';
+import request from 'supertest';
+import type { ZodType } from 'zod';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { findNul } from '../../src/middleware/validate.js';
+import { listPublicRoutes, listResourceRoutes, type RouteInfo } from '../../src/app.js';
+import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from '../harness.js';
+import { quoteFixture } from '../quotes-helpers.js';
+import { mutationOf, oddPathSegments, queryMutationOf, type Mutation } from './mutations.js';
+import { arbitraryOf, fieldsOf, type ArbitraryContext } from './zod-arbitrary.js';
+import { rowCounts } from './row-counts.js';
+
+// Fixed so a failure replays exactly; fast-check prints the seed and the failing case. FUZZ_SEED / FUZZ_RUNS override.
+const SEED = Number(process.env.FUZZ_SEED ?? 20_270_301);
+const RUNS = Number(process.env.FUZZ_RUNS ?? 12);
+
+let h: Harness;
+let server: Server;
+let base: string;
+let owner: SignedIn;
+let context: ArbitraryContext;
+let idOf: Record<string, string>;
+const logged: string[] = [];
+
+const harnessDeps = () => ({
+  logger: pino({ level: 'error' }, { write: (line: string) => void logged.push(line) }),
+});
+
+beforeAll(async () => {
+  h = await createHarness(harnessDeps());
+  await truncateAll(h.dataSource);
+  owner = await signUpFirm(h, 'Quarry Lane Masonry', 'owner@quarrylane.example');
+  const ids = await populateFirm(h, owner);
+  const quotes = await quoteFixture(h, owner, ids.jobId);
+  const feed = await request(h.app).post('/api/calendar-feeds').set(owner.auth).expect(201);
+  const hold = await request(h.app).post('/api/weather-holds').set(owner.auth).send({ jobId: ids.jobId, dates: ['2027-03-02'], reason: 'wind' }).expect(201);
+  idOf = {
+    people: ids.memberId, crews: ids.crewId, clients: ids.clientId, sites: ids.siteId, jobs: ids.jobId,
+    assignments: ids.assignmentId, 'time-off': ids.timeOffId, suppliers: ids.supplierId, 'access-bookings': ids.bookingId,
+    quotes: quotes.quoteId, materials: quotes.materialId, costing: ids.jobId, 'calendar-feeds': feed.body.id, 'weather-holds': hold.body.id,
+  };
+  context = { ids: [...Object.values(ids), quotes.quoteId, quotes.materialId] };
+  server = createServer(h.app);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+});
+
+afterAll(async () => {
+  await new Promise((resolve) => server?.close(resolve));
+  await h.dataSource.destroy();
+});
+
+interface Parts {
+  params: Record<string, string>;
+  query: Record<string, unknown>;
+  body: unknown;
+}
+
+function paramNames(path: string): string[] {
+  return [...path.matchAll(/:([A-Za-z_]+)/g)].map((match) => match[1]!);
+}
+
+function urlFor(route: RouteInfo, params: Record<string, string>, query: Record<string, unknown>, rawSegment?: { name: string; value: string }): string {
+  const path = route.path.replace(/:([A-Za-z_]+)/g, (_m, name: string) =>
+    rawSegment?.name === name ? rawSegment.value : encodeURIComponent(params[name] ?? 'missing'));
+  const search = querystring.stringify(query as querystring.ParsedUrlQueryInput);
+  return search ? `${path}?${search}` : path;
+}
+
+/** Would the route's own schemas accept these parts, read the way Express reads them? */
+function isAccepted(route: RouteInfo, url: string, body: unknown, hasBody: boolean): boolean {
+  const spec = route.spec ?? {};
+  const [pathPart, search = ''] = url.split('?') as [string, string?];
+  const template = route.path.split('/');
+  const actual = pathPart.split('/');
+  const params: Record<string, string> = {};
+  for (const [i, segment] of template.entries()) {
+    if (!segment.startsWith(':')) continue;
+    try {
+      params[segment.slice(1)] = decodeURIComponent(actual[i] ?? '');
+    } catch {
+      return false;
+    }
+  }
+  const query = { ...querystring.parse(search) };
+  // The API refuses NUL in any text before the schema sees it.
+  const check = (schema: ZodType | undefined, value: unknown) => !schema || (!findNul(value) && schema.safeParse(value).success);
+  return check(spec.params, params) && check(spec.query, query) && (!hasBody || check(spec.body, body ?? {}));
+}
+
+async function send(route: RouteInfo, url: string, body: unknown, hasBody: boolean) {
+  const isOpen = !url.startsWith('/api/') || /^\/api\/(auth|public|payments)\//.test(route.path);
+  let req = request(base)[route.method.toLowerCase() as 'post'](url);
+  if (!isOpen || route.path === '/api/auth/me') req = req.set(owner.auth);
+  if (hasBody) req = req.set('Content-Type', 'application/json').send(JSON.stringify(body) ?? 'null');
+  return req;
+}
+
+function describeFailure(route: RouteInfo, label: string, status: number, body: unknown): string {
+  const lastError = logged.at(-1)?.slice(0, 1_500) ?? '';
+  return `${route.method} ${route.path} [${label}] → ${status} ${JSON.stringify(body).slice(0, 400)}\n${status >= 500 ? lastError : ''}`;
+}
+
+function generatorsFor(route: RouteInfo) {
+  const spec = route.spec ?? {};
+  const resource = route.path.split('/')[2] ?? '';
+  const names = paramNames(route.path);
+  const paramsArb: fc.Arbitrary<Record<string, string>> = spec.params
+    ? (arbitraryOf(spec.params, { ids: idOf[resource] ? [idOf[resource]!] : [] }) as fc.Arbitrary<Record<string, string>>)
+    : fc.constant(Object.fromEntries(names.map((name) => [name, 'missing'])));
+  const queryArb = spec.query ? (arbitraryOf(spec.query, context) as fc.Arbitrary<Record<string, unknown>>) : fc.constant({});
+  const bodyArb = spec.body ? arbitraryOf(spec.body, context) : fc.constant(undefined);
+  return { paramsArb, queryArb, bodyArb, names };
+}
+
+/** Every route that reads a body, a query or path params; removals last so the others still find their rows. */
+const allRoutes = (): RouteInfo[] => {
+  const routes = [...listPublicRoutes(h.services, { appUrl: 'http://localhost:3000' }), ...listResourceRoutes(h.services)]
+    .filter((route) => route.spec && (route.spec.body || route.spec.query || route.spec.params));
+  return [...routes.filter((route) => route.method !== 'DELETE'), ...routes.filter((route) => route.method === 'DELETE')];
+};
+
+describe('fuzzed input', () => {
+  it('finds routes to fuzz, public ones included', async () => {
+    const routes = allRoutes();
+    expect(routes.length).toBeGreaterThan(60);
+    expect(routes.some((route) => route.path.startsWith('/api/public/'))).toBe(true);
+    expect(routes.some((route) => route.path.startsWith('/api/auth/'))).toBe(true);
+  });
+
+  it('answers every fuzzed request on every route with 2xx/4xx, never 500, and writes nothing when the input is invalid', async () => {
+    const routes = allRoutes();
+    const failures: string[] = [];
+    for (const [index, route] of routes.entries()) {
+      const { paramsArb, queryArb, bodyArb, names } = generatorsFor(route);
+      const hasBody = Boolean(route.spec?.body);
+      const queryFields = route.spec?.query ? fieldsOf(route.spec.query) : [];
+      const bodyFields = route.spec?.body ? fieldsOf(route.spec.body) : [];
+      const targets = [
+        ...(hasBody ? (['body'] as const) : []),
+        ...(route.spec?.query ? (['query'] as const) : []),
+        ...(names.length ? (['params'] as const) : []),
+      ];
+      const mutated = fc.record({
+        params: paramsArb,
+        query: queryArb,
+        body: bodyArb,
+        target: fc.constantFrom(...targets),
+        bodyMutation: mutationOf(bodyFields),
+        queryMutation: queryMutationOf(queryFields),
+        segment: fc.record({ name: names.length ? fc.constantFrom(...names) : fc.constant(''), value: fc.constantFrom(...oddPathSegments) }),
+        // One run in four sends the generated input as it is: valid input must not break the service either.
+        isPlain: fc.integer({ min: 0, max: 3 }).map((n) => n === 0),
+      });
+      const outcome = await fc.check(
+        fc.asyncProperty(mutated, async (input) => {
+          const parts: Parts = { params: input.params, query: input.query, body: input.body };
+          let label = 'as generated';
+          let rawSegment: { name: string; value: string } | undefined;
+          if (!input.isPlain) {
+            const apply = (mutation: Mutation, value: unknown) => mutation.apply((value && typeof value === 'object' && !Array.isArray(value) ? value : {}) as Record<string, unknown>);
+            if (input.target === 'body') {
+              parts.body = apply(input.bodyMutation, parts.body);
+              label = `body: ${input.bodyMutation.name}`;
+            } else if (input.target === 'query') {
+              parts.query = apply(input.queryMutation, parts.query) as Record<string, unknown>;
+              label = `query: ${input.queryMutation.name}`;
+            } else {
+              rawSegment = input.segment;
+              label = `path :${input.segment.name} = ${input.segment.value.slice(0, 40)}`;
+            }
+          }
+          const url = urlFor(route, parts.params, parts.query, rawSegment);
+          const isValid = isAccepted(route, url, parts.body, hasBody);
+          const before = isValid ? undefined : await rowCounts(h.dataSource);
+          const res = await send(route, url, parts.body, hasBody);
+          const why = describeFailure(route, label, res.status, res.body);
+          expect(res.status, why).toBeLessThan(500);
+          if (res.status >= 400) expect(res.headers['content-type'], why).toMatch(/application\/problem\+json/);
+          if (!isValid) {
+            expect([400, 413], why).toContain(res.status);
+            expect(await rowCounts(h.dataSource), why).toEqual(before);
+          }
+        }),
+        { seed: SEED + index, numRuns: RUNS, endOnFailure: true },
+      );
+      if (outcome.failed) {
+        const error = outcome.errorInstance instanceof Error ? outcome.errorInstance.message : String(outcome.errorInstance);
+        failures.push(`${error.split('\n').slice(0, 6).join('\n')}\n  (seed ${outcome.seed}, replay FUZZ_SEED=${SEED} route #${index})`);
+      }
+    }
+    expect(failures, failures.join('\n\n')).toEqual([]);
+  }, 240_000);
+});

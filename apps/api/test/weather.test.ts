@@ -1,0 +1,174 @@
+import request from 'supertest';
+import { afterAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { BoardDto, ForecastHour, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
+import { createWeatherFake } from '../src/fakes/weather-fake.js';
+import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
+import { HttpForecastProvider, HttpGeocoder, type ForecastProvider } from '../src/services/weather/forecast-provider.js';
+import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+
+/** The same scenario files the local fake serves, in process, with a switch to make it fail. */
+class ScenarioProvider implements ForecastProvider {
+  scenario: ScenarioName = 'calm-week';
+  isDown = false;
+  constructor(private readonly now: { value: Date }) {}
+  async hourly(lat: number, lon: number, days: number): Promise<ForecastHour[]> {
+    if (this.isDown) throw new Error('forecast service answered 503');
+    return scenarioHours(this.scenario, lat, lon, this.now.value.getTime() - 86_400_000, (days + 1) * 24);
+  }
+}
+
+let h: Harness;
+let provider: ScenarioProvider;
+let owner: SignedIn;
+let ids: Awaited<ReturnType<typeof populateFirm>>;
+
+// Wednesday 24 March 2027, early; the job runs Thu 25 March and, after Good Friday and Easter Monday, Tue 30 March.
+beforeEach(async () => {
+  const now = { value: new Date('2027-03-24T06:00:00Z') };
+  provider = new ScenarioProvider(now);
+  h = await createHarness({ forecastProvider: provider, geocoder: { locate: async () => ({ lat: 53.8, lon: -1.55 }) }, clock: () => now.value });
+  h.now.value = now.value;
+  await truncateAll(h.dataSource);
+  owner = await signUpFirm(h, 'Heather Lane Masonry', 'owner@heather.example');
+  ids = await populateFirm(h, owner);
+  await request(h.app).post(`/api/access-bookings/${ids.bookingId}/state`).set(owner.auth).send({ state: 'cancelled', version: 1 }).expect(200);
+  const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+  await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth)
+    .send({ ...job.body, workTypes: ['chimney'], accessNeeds: ['scaffold'], estimatedWorkingDays: 2, version: job.body.version }).expect(200);
+  await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
+    .send({ crewId: ids.crewId, startDate: '2027-03-25', workingDays: 2, version: 1 }).expect(200);
+});
+afterAll(async () => {
+  await h.dataSource.destroy();
+});
+
+const refresh = () => request(h.app).post('/api/weather/refresh').set(owner.auth).send({}).expect(200);
+const board = async () => (await request(h.app).get('/api/board').query({ from: '2027-03-22', to: '2027-04-09' }).set(owner.auth).expect(200)).body as BoardDto;
+
+describe('forecasts on the board', () => {
+  it('turns a scaffold job-day to stop in a gale, with wind reasons that name the Beaufort force and defer to the competent person', async () => {
+    provider.scenario = 'gale';
+    expect((await refresh()).body).toEqual({ refreshed: 1, failed: 0 });
+    const view = await board();
+    const day = view.weather.find((d) => d.date === '2027-03-25');
+    expect(day?.verdict).toBe('stop');
+    const wind = day!.reasons.filter((r) => r.ruleId.startsWith('wind.') && r.verdict === 'stop');
+    expect(wind.length).toBeGreaterThan(0);
+    expect(wind.some((r) => /force \d+|Beaufort/i.test(r.message))).toBe(true);
+    expect(day!.advice.join(' ')).toMatch(/competent person/i);
+    expect(view.conflicts).toContainEqual(expect.objectContaining({ kind: 'weather-stop', date: '2027-03-25', severity: 'stop' }));
+  });
+
+  it('stops bricklaying in a hard frost by the 3 °C-and-falling rule', async () => {
+    provider.scenario = 'hard-frost';
+    await refresh();
+    const day = (await board()).weather.find((d) => d.date === '2027-03-25')!;
+    // Source: NBS clause F10/185 and NHBC Standards 2023 §3.2.5: no laying at or below 3 °C and falling.
+    expect(day.reasons).toContainEqual(expect.objectContaining({ activity: 'bricklaying', ruleId: 'cold.mortar.cement', verdict: 'stop' }));
+  });
+
+  it('keeps the last good forecast and marks it stale when the service is down', async () => {
+    provider.scenario = 'calm-week';
+    await refresh();
+    expect((await board()).weather.find((d) => d.date === '2027-03-25')).toMatchObject({ verdict: 'go', isStale: false });
+    provider.isDown = true;
+    expect((await refresh()).body).toEqual({ refreshed: 0, failed: 1 });
+    const day = (await board()).weather.find((d) => d.date === '2027-03-25')!;
+    expect(day).toMatchObject({ verdict: 'go', isStale: true });
+    expect(day.forecastFetchedAt).toBe('2027-03-24T06:00:00.000Z');
+  });
+});
+
+describe('stand-downs and re-plans', () => {
+  async function followingJob(): Promise<string> {
+    const res = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Garden wall after the stack', workTypes: ['garden-wall'], estimatedWorkingDays: 2 }).expect(201);
+    await request(h.app).post(`/api/jobs/${res.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: res.body.id, crewId: ids.crewId, startDate: '2027-03-31' }).expect(201);
+    return res.body.id as string;
+  }
+  const raise = (body: object = { jobId: ids.jobId, dates: ['2027-03-25'], reason: 'wind', notes: 'Gusting over the ridge' }) =>
+    request(h.app).post('/api/weather-holds').set(owner.auth).send(body);
+
+  it('stands the job down, and the same idempotency key twice stores it once', async () => {
+    const first = await raise({ jobId: ids.jobId, dates: ['2027-03-25'], reason: 'wind', idempotencyKey: 'phone-queue-0001' }).expect(201);
+    const again = await raise({ jobId: ids.jobId, dates: ['2027-03-25'], reason: 'wind', idempotencyKey: 'phone-queue-0001' }).expect(200);
+    expect(again.body.id).toBe(first.body.id);
+    expect((await request(h.app).get('/api/weather-holds').set(owner.auth).expect(200)).body).toHaveLength(1);
+    expect((await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200)).body.status).toBe('stood-down');
+  });
+
+  it('refuses a day that is not one of the job\'s days', async () => {
+    const res = await raise({ jobId: ids.jobId, dates: ['2027-03-26'], reason: 'rain' }).expect(400);
+    expect(res.body.errors[0].path).toBe('dates');
+  });
+
+  it('previews a push with ripple over Easter and commits exactly what it previewed, telling each client once', async () => {
+    const nextJob = await followingJob();
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const preview = (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    // Source: gov.uk bank holidays, England and Wales 2027 (Good Friday 26 March, Easter Monday 29 March).
+    expect(preview.moves.map((m) => [m.jobId, m.toDays])).toEqual([
+      [ids.jobId, ['2027-03-30', '2027-03-31']],
+      [nextJob, ['2027-04-01', '2027-04-02']],
+    ]);
+    const committed = (await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    expect(committed.moves).toEqual(preview.moves);
+    const view = await board();
+    expect(view.assignments.find((a) => a.jobId === ids.jobId)!.days).toEqual(['2027-03-30', '2027-03-31']);
+    expect(view.assignments.find((a) => a.jobId === nextJob)!.days).toEqual(['2027-04-01', '2027-04-02']);
+    expect((await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200)).body.status).toBe('scheduled');
+    const clientMails = h.mailer.outbox.filter((m) => m.to === 'farm@example.org');
+    expect(clientMails).toHaveLength(2);
+    expect(clientMails[0]!.text).toContain('Tuesday 30 March');
+    await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(409);
+    expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(2);
+  });
+
+  it('lets only one of two simultaneous re-plans through', async () => {
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const [a, b] = await Promise.all([
+      request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }),
+      request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([200, 409]);
+    const history = await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200);
+    expect((history.body as Array<{ action: string }>).filter((e) => e.action === 'replanned')).toHaveLength(2); // one move + one hold line
+  });
+
+  it('asks a confirmed scaffold supplier once when a re-plan moves the job', async () => {
+    const supplier = await request(h.app).post('/api/suppliers').set(owner.auth).send({ name: 'Steady Tube', email: 'desk@steadytube.example', weeklyRates: { scaffold: 12_000 } }).expect(201);
+    const booking = await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId], accessType: 'scaffold', supplierId: supplier.body.id }).expect(201);
+    await request(h.app).post(`/api/access-bookings/${booking.body.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.body.version }).expect(200);
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const preview = (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    expect(preview.accessChanges).toEqual([expect.objectContaining({ effect: 'asks-supplier', toErect: '2027-03-25', toStrike: '2027-04-01' })]);
+    await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }).expect(200);
+    expect(h.mailer.outbox.filter((m) => m.to === 'desk@steadytube.example')).toHaveLength(1);
+  });
+});
+
+describe('the hosted-service adapters against the local fake', () => {
+  const fake = createWeatherFake({ port: 0, scenario: 'showers' });
+  beforeEach(async () => {
+    await fake.start();
+  });
+  afterEach(async () => {
+    await fake.stop();
+  });
+
+  it('reads hourly forecasts in m/s and probabilities as fractions', async () => {
+    const hours = await new HttpForecastProvider(fake.url()).hourly(53.8, -1.55, 2);
+    expect(hours.length).toBeGreaterThanOrEqual(48);
+    const wet = hours.find((hour) => hour.precipMm > 0)!;
+    expect(wet).toMatchObject({ precipMm: 2.5, precipProbability: 0.85 });
+    expect(wet.time).toMatch(/Z$/);
+  });
+
+  it('looks up a postcode and answers null for one that does not exist', async () => {
+    const geocoder = new HttpGeocoder(fake.url());
+    const found = await geocoder.locate('LS6 2AB');
+    expect(found!.lat).toBeGreaterThan(49);
+    expect(await geocoder.locate('NOT A CODE')).toBeNull();
+  });
+});
