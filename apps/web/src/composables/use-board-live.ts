@@ -1,0 +1,61 @@
+import { onMounted, onScopeDispose, ref, watch, type Ref } from 'vue';
+import type { ScheduleChangedMessage } from '@hodboard/shared';
+import { realtime, type RealtimeStatus } from '@/realtime/socket';
+import { useScheduleStore } from '@/stores/schedule-store';
+import { useSessionStore } from '@/stores/session-store';
+
+export interface BoardLive {
+  status: Ref<RealtimeStatus>;
+  /** The last change someone else made, in words, for the polite live region. */
+  lastRemoteChange: Ref<string>;
+}
+
+function describe(message: ScheduleChangedMessage): string {
+  const { change } = message;
+  const ref = change.job.reference;
+  if (message.type === 'assignment:created') return `${change.actorName} put ${ref} on the board.`;
+  if (message.type === 'assignment:removed') return `${change.actorName} put ${ref} back in the tray.`;
+  return `${change.actorName} moved ${ref}.`;
+}
+
+/** Records that change what the board draws (a job's status, leave, a crew) without being schedule changes. */
+const reloadingTypes = /^(job|time-off|crew|firm|access)[:.]/;
+
+export function useBoardLive(): BoardLive {
+  const store = useScheduleStore();
+  const session = useSessionStore();
+  const lastRemoteChange = ref('');
+  let reloadTimer: ReturnType<typeof setTimeout> | undefined;
+
+  const stops = [
+    realtime.onScheduleChanged((message) => {
+      const applied = store.applyEvent(message.change, message.eventId);
+      if (applied && message.change.actorName !== session.user?.name) lastRemoteChange.value = describe(message);
+    }),
+    realtime.onConnected(() => {
+      if (!store.range || store.isLoading) return;
+      store.catchUp().catch(() => store.reload());
+    }),
+    realtime.onResourceChanged((message) => {
+      if (!reloadingTypes.test(message.type)) return;
+      clearTimeout(reloadTimer);
+      // Bulk edits arrive as bursts; one reload after the burst is enough.
+      reloadTimer = setTimeout(() => void store.reload(), 400);
+    }),
+  ];
+
+  watch(
+    () => session.isSignedIn,
+    (isSignedIn) => {
+      if (!isSignedIn) realtime.stop();
+    },
+  );
+
+  onMounted(() => realtime.start());
+  onScopeDispose(() => {
+    clearTimeout(reloadTimer);
+    for (const stop of stops) stop();
+  });
+
+  return { status: realtime.status, lastRemoteChange };
+}

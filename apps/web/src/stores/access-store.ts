@@ -1,0 +1,239 @@
+import { defineStore } from 'pinia';
+import { computed, ref, shallowRef } from 'vue';
+import type {
+  AccessBookingDto,
+  AccessBookingInput,
+  AccessState,
+  AccessType,
+  InspectionInput,
+  InspectionStatusDto,
+  ResourceChangedMessage,
+  ScaffoldInspectionDto,
+  SupplierDto,
+  SupplierInput,
+} from '@hodboard/shared';
+import * as accessApi from '@/api/access';
+import { isApiError } from '@/api/http';
+import type { RealtimeClient } from '@/realtime/socket';
+
+/** What the board draws under a job: the window the access is (or should be) up. */
+export interface AccessBandView {
+  bookingId: string;
+  jobIds: string[];
+  accessType: AccessType;
+  state: AccessState;
+  erect: string;
+  strike: string;
+  inspection: InspectionStatusDto['status'];
+  hasPendingChange: boolean;
+}
+
+const liveStates = new Set<AccessState>(['requested', 'confirmed', 'erected']);
+
+/**
+ * The same window the API draws: the day it actually went up wins over the confirmed date, which wins over the
+ * requested one. Only bookings still in play get a band.
+ */
+export function bandOf(booking: AccessBookingDto): AccessBandView | null {
+  if (!liveStates.has(booking.state)) return null;
+  const erect = booking.hire?.erect ?? booking.confirmedErect ?? booking.requestedErect;
+  const strike = booking.hire?.strike ?? booking.confirmedStrike ?? booking.requestedStrike;
+  if (!erect || !strike) return null;
+  return {
+    bookingId: booking.id,
+    jobIds: booking.jobIds,
+    accessType: booking.accessType,
+    state: booking.state,
+    erect,
+    strike,
+    inspection: booking.inspection.status,
+    hasPendingChange: booking.pendingChange?.status === 'pending',
+  };
+}
+
+/** The next steps a booking can take, in the order the office usually takes them. */
+export const nextStates: Record<AccessState, AccessState[]> = {
+  requested: ['confirmed', 'cancelled'],
+  confirmed: ['erected', 'requested', 'cancelled'],
+  erected: ['struck'],
+  struck: [],
+  cancelled: ['requested'],
+};
+
+export const inspectionStatusLabels: Record<InspectionStatusDto['status'], string> = {
+  none: 'Not up yet',
+  ok: 'Inspected, in date',
+  due: 'Inspection due today',
+  overdue: 'Inspection overdue',
+  unsafe: 'Marked not safe',
+};
+
+export const useAccessStore = defineStore('access', () => {
+  const suppliers = shallowRef<SupplierDto[]>([]);
+  const bookings = ref<Record<string, AccessBookingDto>>({});
+  const isLoading = ref(false);
+  const hasLoadedAll = ref(false);
+  const error = shallowRef<unknown>(null);
+  const savingIds = ref<Set<string>>(new Set());
+  /** Jobs whose bookings this session has asked for; live updates refresh only what someone is looking at. */
+  const watchedJobIds = new Set<string>();
+  let unbind: (() => void) | null = null;
+
+  const bookingList = computed(() =>
+    Object.values(bookings.value).sort((a, b) => (a.hire?.erect ?? a.requestedErect ?? '').localeCompare(b.hire?.erect ?? b.requestedErect ?? '') || a.id.localeCompare(b.id)),
+  );
+
+  const bandsByJob = computed(() => {
+    const byJob = new Map<string, AccessBandView[]>();
+    for (const booking of bookingList.value) {
+      const band = bandOf(booking);
+      if (!band) continue;
+      for (const jobId of band.jobIds) byJob.set(jobId, [...(byJob.get(jobId) ?? []), band]);
+    }
+    return byJob;
+  });
+
+  function bookingsForJob(jobId: string): AccessBookingDto[] {
+    return bookingList.value.filter((booking) => booking.jobIds.includes(jobId));
+  }
+
+  function put(booking: AccessBookingDto): void {
+    const existing = bookings.value[booking.id];
+    if (existing && existing.version > booking.version) return;
+    bookings.value[booking.id] = booking;
+  }
+
+  async function loadAll(): Promise<void> {
+    isLoading.value = true;
+    error.value = null;
+    try {
+      const list = await accessApi.listAccessBookings();
+      bookings.value = Object.fromEntries(list.map((booking) => [booking.id, booking]));
+      hasLoadedAll.value = true;
+    } catch (caught) {
+      error.value = caught;
+    } finally {
+      isLoading.value = false;
+    }
+  }
+
+  async function loadForJob(jobId: string): Promise<void> {
+    watchedJobIds.add(jobId);
+    const list = await accessApi.listAccessBookings({ jobId });
+    for (const booking of Object.values(bookings.value)) {
+      if (booking.jobIds.includes(jobId) && !list.some((b) => b.id === booking.id)) delete bookings.value[booking.id];
+    }
+    for (const booking of list) put(booking);
+  }
+
+  async function refreshOne(bookingId: string): Promise<void> {
+    try {
+      put(await accessApi.getAccessBooking(bookingId));
+    } catch (caught) {
+      if (isApiError(caught, 'not-found')) delete bookings.value[bookingId];
+      else throw caught;
+    }
+  }
+
+  async function loadSuppliers(): Promise<SupplierDto[]> {
+    suppliers.value = (await accessApi.listSuppliers()).sort((a, b) => a.name.localeCompare(b.name));
+    return suppliers.value;
+  }
+
+  async function saveSupplier(input: SupplierInput, existing: SupplierDto | null): Promise<SupplierDto> {
+    const saved = existing ? await accessApi.updateSupplier(existing.id, input, existing.version) : await accessApi.createSupplier(input);
+    suppliers.value = [...suppliers.value.filter((s) => s.id !== saved.id), saved].sort((a, b) => a.name.localeCompare(b.name));
+    return saved;
+  }
+
+  async function removeSupplier(supplierId: string): Promise<void> {
+    await accessApi.deleteSupplier(supplierId);
+    suppliers.value = suppliers.value.filter((s) => s.id !== supplierId);
+  }
+
+  async function saving<T>(id: string, task: () => Promise<T>): Promise<T> {
+    savingIds.value = new Set(savingIds.value).add(id);
+    try {
+      return await task();
+    } finally {
+      const next = new Set(savingIds.value);
+      next.delete(id);
+      savingIds.value = next;
+    }
+  }
+
+  async function create(input: AccessBookingInput): Promise<AccessBookingDto> {
+    const created = await accessApi.createAccessBooking(input);
+    for (const jobId of created.jobIds) watchedJobIds.add(jobId);
+    put(created);
+    return created;
+  }
+
+  /** Optimistic: the booking shows its new state at once and goes back if the server refuses. */
+  async function changeState(bookingId: string, state: AccessState, dates: { confirmedErect?: string; confirmedStrike?: string } = {}): Promise<AccessBookingDto> {
+    const before = bookings.value[bookingId];
+    if (!before) throw new Error('That booking is no longer listed.');
+    bookings.value[bookingId] = { ...before, state };
+    try {
+      const saved = await saving(bookingId, () => accessApi.changeAccessState(bookingId, { state, ...dates, version: before.version }));
+      bookings.value[bookingId] = saved;
+      return saved;
+    } catch (caught) {
+      if (bookings.value[bookingId]?.state === state) bookings.value[bookingId] = before;
+      if (isApiError(caught, 'stale-version')) void refreshOne(bookingId).catch(() => undefined);
+      throw caught;
+    }
+  }
+
+  async function recordInspection(bookingId: string, input: InspectionInput): Promise<ScaffoldInspectionDto> {
+    const saved = await saving(bookingId, () => accessApi.recordInspection(bookingId, input));
+    await refreshOne(bookingId);
+    return saved;
+  }
+
+  /** A push for the office room: refresh the one booking if anything on screen shows it. */
+  function applyEvent(message: ResourceChangedMessage): Promise<void> | undefined {
+    if (!message.type.startsWith('access:')) return undefined;
+    const known = bookings.value[message.id];
+    if (!known && !hasLoadedAll.value && watchedJobIds.size === 0) return undefined;
+    return refreshOne(message.id).catch(() => undefined);
+  }
+
+  /** Idempotent: every view showing access calls it; the store listens once for the life of the app. */
+  function bindRealtime(client: RealtimeClient): void {
+    if (unbind) return;
+    client.start();
+    unbind = client.onResourceChanged((message) => void applyEvent(message));
+  }
+
+  function clear(): void {
+    bookings.value = {};
+    suppliers.value = [];
+    hasLoadedAll.value = false;
+    watchedJobIds.clear();
+  }
+
+  return {
+    suppliers,
+    bookings,
+    bookingList,
+    bandsByJob,
+    isLoading,
+    hasLoadedAll,
+    error,
+    savingIds,
+    bookingsForJob,
+    loadAll,
+    loadForJob,
+    refreshOne,
+    loadSuppliers,
+    saveSupplier,
+    removeSupplier,
+    create,
+    changeState,
+    recordInspection,
+    applyEvent,
+    bindRealtime,
+    clear,
+  };
+});

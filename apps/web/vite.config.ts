@@ -1,0 +1,84 @@
+import { fileURLToPath, URL } from 'node:url';
+import { defineConfig, type Plugin } from 'vite';
+import vue from '@vitejs/plugin-vue';
+import { VitePWA } from 'vite-plugin-pwa';
+import { crewPwa } from './pwa.config.ts';
+import { prebuiltPrimeVueTheme } from './vite/primevue-theme.ts';
+
+const apiTarget = 'http://127.0.0.1:3000';
+
+/**
+ * The page's first script (src/boot/start.ts) imports the app only once the shell has painted, so the app's code is
+ * a dynamic import the HTML knows nothing of. This lists that code and its stylesheets in the page's head as
+ * preloads, so the download starts with the page, as it would for an ordinary entry script, and only the
+ * evaluation waits.
+ */
+function preloadAppAfterShell(): Plugin {
+  return {
+    name: 'hodboard:preload-app-after-shell',
+    apply: 'build',
+    transformIndexHtml: {
+      order: 'post',
+      handler(html, { bundle }) {
+        if (!bundle) return html;
+        const chunks = Object.values(bundle).filter((output) => output.type === 'chunk');
+        const app = chunks.find((chunk) => chunk.facadeModuleId?.endsWith('/src/main.ts'));
+        if (!app) throw new Error('no chunk for src/main.ts in the build: the page would preload nothing');
+        const scripts = new Set<string>();
+        const styles = new Set<string>();
+        const visit = (fileName: string) => {
+          if (scripts.has(fileName)) return;
+          scripts.add(fileName);
+          const chunk = bundle[fileName];
+          if (chunk?.type !== 'chunk') return;
+          for (const css of chunk.viteMetadata?.importedCss ?? []) styles.add(css);
+          for (const imported of chunk.imports) visit(imported);
+        };
+        visit(app.fileName);
+        const base = '/';
+        return [
+          ...[...styles].map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', href: `${base}${file}` }, injectTo: 'head' as const })),
+          ...[...scripts].map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `${base}${file}` }, injectTo: 'head' as const })),
+        ];
+      },
+    },
+  };
+}
+
+export default defineConfig({
+  plugins: [vue(), VitePWA(crewPwa), prebuiltPrimeVueTheme(fileURLToPath(new URL('./src', import.meta.url))), preloadAppAfterShell()],
+  resolve: {
+    alias: [
+      { find: '@', replacement: fileURLToPath(new URL('./src', import.meta.url)) },
+      // Shared code imports rrule the way Node's ESM loader needs (a default import of its CJS build);
+      // the browser bundle must see that same build, as rrule's ESM entry has no default export.
+      { find: /^rrule$/, replacement: 'rrule/dist/es5/rrule.js' },
+    ],
+  },
+  server: {
+    proxy: {
+      '/api': { target: apiTarget, changeOrigin: false },
+      '/socket.io': { target: apiTarget, ws: true },
+    },
+  },
+  build: {
+    target: 'es2022',
+    rolldownOptions: {
+      // Shared code is pure by design; saying so lets the bundle drop the trade-rule libraries
+      // (holiday tables, recurrence, sun position) from pages that never call them.
+      treeshake: {
+        moduleSideEffects: (id: string) => !/[\\/]packages[\\/]shared[\\/]src[\\/]/.test(id),
+      },
+      output: {
+        // Vendor code changes far less often than views; separate chunks keep browser caches warm across releases.
+        codeSplitting: {
+          groups: [
+            { name: 'vue-vendor', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]/ },
+            { name: 'primevue-core', test: /node_modules[\\/](@primeuix|@primevue[\\/]core)[\\/]/ },
+            { name: 'zod', test: /node_modules[\\/]zod[\\/]/ },
+          ],
+        },
+      },
+    },
+  },
+});
