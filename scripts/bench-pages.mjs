@@ -4,8 +4,8 @@
 // audited browser. Floor, in the same browser and run: Lighthouse on a bare static page (a heading and a line)
 // served from loopback, which is what the throttled phone costs before any app at all.
 // Usage: node scripts/bench-pages.mjs BASE_URL DIST_DIR. Writes rows to BENCH_RESULTS_FILE when set, and each
-// page's whole Lighthouse report into the folder BENCH_KEEP_REPORTS names, when set.
-import { readFileSync, readdirSync, writeFileSync } from 'node:fs';
+// page's whole Lighthouse report and its trace into the folder BENCH_KEEP_REPORTS names, when set.
+import { mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:http';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
@@ -69,6 +69,7 @@ const FLOOR_HTML = `<!doctype html><html lang="en"><head><meta charset="utf-8"><
 
 async function audit(page, url) {
   let lhr;
+  let trace;
   // A trace can come back broken on a busy machine (NO_NAVSTART and the like); Lighthouse's advice is to run again.
   for (let attempt = 1; ; attempt += 1) {
     await page.goto('about:blank');
@@ -76,13 +77,19 @@ async function audit(page, url) {
       output: 'json', logLevel: 'error', onlyCategories: ['performance', 'accessibility'], formFactor: 'mobile', throttlingMethod: 'simulate',
     }, undefined, page);
     lhr = result.lhr;
+    trace = result.artifacts?.Trace;
     if (!lhr.runtimeError) break;
     if (attempt === 3) throw new Error(`Lighthouse on ${url}: ${lhr.runtimeError.code} ${lhr.runtimeError.message}`);
     console.log(`Lighthouse on ${url}: ${lhr.runtimeError.code}; running it again`);
   }
   if (process.env.BENCH_KEEP_REPORTS) {
-    const file = path.join(process.env.BENCH_KEEP_REPORTS, `lighthouse${new URL(url).pathname.replaceAll('/', '-')}.json`);
+    // The floor page sits at "/", so it is named apart from the app's pages.
+    const name = new URL(url).pathname.replaceAll('/', '-').replace(/^-$/, '-floor');
+    mkdirSync(process.env.BENCH_KEEP_REPORTS, { recursive: true });
+    const file = path.join(process.env.BENCH_KEEP_REPORTS, `lighthouse${name}.json`);
     writeFileSync(file, JSON.stringify(lhr));
+    // The unthrottled trace the scores were simulated from: where each long task went (chrome://tracing opens it).
+    if (trace) writeFileSync(file.replace(/\.json$/, '.trace.json'), JSON.stringify(trace));
     console.log(`  full report: ${file}`);
   }
   const value = (id) => lhr.audits[id]?.numericValue ?? null;
