@@ -75,7 +75,11 @@ export default defineConfig({
           groups: [
             { name: 'vue-vendor', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]/ },
             { name: 'primevue-core', test: /node_modules[\\/](@primeuix|@primevue[\\/]core)[\\/]/ },
-            { name: 'zod', test: /node_modules[\\/]zod[\\/]/ },
+            // The payload schemas travel with zod, apart from the words screens show (shared/src/terms), so a screen
+            // with no form to check (the crew's phone, at first) loads neither.
+            { name: 'schemas', test: /node_modules[\\/]zod[\\/]|[\\/]packages[\\/]shared[\\/]src[\\/]schemas[\\/]/ },
+            // Ahead of the schemas group, which would otherwise take these in with the schemas that import them.
+            { name: 'terms', test: /[\\/]packages[\\/]shared[\\/]src[\\/]terms[\\/]/, priority: 1 },
           ],
         },
       },

@@ -1,18 +1,9 @@
 import { z } from 'zod';
 import { idSchema, isoDateSchema, optionalEmailSchema, optionalText, pageQuerySchema, requiredText } from './common.js';
 import type { PhotoDto } from './photos.js';
+import { accessStates, accessTypes, type AccessState, type AccessType } from '../terms/access.js';
 
-/** Access kinds in the trade's own words. */
-export const accessTypes = ['scaffold', 'tower', 'mewp', 'roof-ladder', 'edge-protection'] as const;
 export const accessTypeSchema = z.enum(accessTypes);
-export type AccessType = z.infer<typeof accessTypeSchema>;
-export const accessTypeLabels: Record<AccessType, string> = {
-  scaffold: 'Scaffold',
-  tower: 'Mobile tower',
-  mewp: 'MEWP',
-  'roof-ladder': 'Roof ladder',
-  'edge-protection': 'Edge protection',
-};
 
 const penceSchema = z.number().int({ message: 'Whole pence only' }).min(0).max(100_000_000);
 
@@ -35,16 +26,6 @@ export interface SupplierDto extends SupplierValues {
 }
 
 export const supplierListQuerySchema = pageQuerySchema(['name']);
-
-export const accessStates = ['requested', 'confirmed', 'erected', 'struck', 'cancelled'] as const;
-export type AccessState = (typeof accessStates)[number];
-export const accessStateLabels: Record<AccessState, string> = {
-  requested: 'Requested',
-  confirmed: 'Confirmed',
-  erected: 'Up',
-  struck: 'Struck',
-  cancelled: 'Cancelled',
-};
 
 export const accessBookingInputSchema = z.object({
   jobIds: z.array(idSchema).min(1, { message: 'Pick at least one job' }).max(10),
@@ -202,6 +183,3 @@ export interface AccessBandDto {
   strike: string;
   inspection: InspectionStatusDto['status'];
 }
-
-export const ACCESS_SAFETY_NOTE =
-  'Scaffolds are erected, altered, inspected and struck only by competent, trained people. Inspection duties and intervals differ between countries: follow your local regulations and the scaffold supplier.';

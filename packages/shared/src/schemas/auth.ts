@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { emailSchema, passwordSchema, requiredText } from './common.js';
-import { roleSchema, type Role } from './roles.js';
+import type { Role } from '../terms/roles.js';
+import { roleSchema } from './roles.js';
 
 export const signUpSchema = z.object({
   firmName: requiredText(120, 'Firm name'),

@@ -1,10 +1,12 @@
 import { z } from 'zod';
 import { isoDateSchema } from './common.js';
-import type { AccessType, InspectionStatusDto, AccessState } from './access.js';
+import type { AccessState, AccessType } from '../terms/access.js';
+import type { HoldReason } from '../terms/weather.js';
+import type { InspectionStatusDto } from './access.js';
 import type { AccessNeed, JobStatus, WorkType } from './jobs.js';
 import type { PhotoDto } from './photos.js';
 import type { SiteNoteDto } from './site-notes.js';
-import type { DayWeatherDto, HoldReason } from './weather.js';
+import type { DayWeatherDto } from './weather.js';
 
 export const crewDaysQuerySchema = z
   .object({ from: isoDateSchema.optional(), days: z.coerce.number().int().min(1).max(21).default(8) })

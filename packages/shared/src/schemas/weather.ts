@@ -1,16 +1,8 @@
 import { z } from 'zod';
 import { idSchema, isoDateSchema, optionalText } from './common.js';
+import { holdReasons, type HoldReason } from '../terms/weather.js';
 
-export const holdReasons = ['wind', 'rain', 'frost-cold', 'heat', 'other'] as const;
 export const holdReasonSchema = z.enum(holdReasons);
-export type HoldReason = z.infer<typeof holdReasonSchema>;
-export const holdReasonLabels: Record<HoldReason, string> = {
-  wind: 'Wind',
-  rain: 'Rain',
-  'frost-cold': 'Frost or cold',
-  heat: 'Heat',
-  other: 'Other',
-};
 
 export const weatherHoldInputSchema = z.object({
   jobId: idSchema,
@@ -118,6 +110,4 @@ export interface WeatherOutlookDto {
   atRisk: Array<{ jobId: string; reference: string; date: string; verdict: 'caution' | 'stop'; crewId: string; hasConfirmedAccess: boolean; targetFinish: string | null }>;
 }
 
-export const WEATHER_SAFETY_NOTE =
-  'Weather verdicts are guidance from the forecast, not a permit. The competent person on site decides whether work is safe, following local regulations, the manufacturer\'s limits and readings taken on site.';
 export * from './weather-limits.js';
