@@ -39,7 +39,11 @@ async function crewCells(page: Page, crew: string): Promise<Array<{ date: string
 async function confirmIfAsked(page: Page, settled: Locator): Promise<void> {
   const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
   await expect(bookAnyway.or(settled).first()).toBeVisible({ timeout: 10_000 });
-  if (await bookAnyway.isVisible()) await bookAnyway.click();
+  if (await bookAnyway.isVisible()) {
+    await bookAnyway.click();
+    // Until the question's dialog has finished closing (its button leaves the page last), it takes the next drag.
+    await expect(bookAnyway).toHaveCount(0);
+  }
   await expect(settled).toBeVisible();
 }
 
