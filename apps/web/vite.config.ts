@@ -37,7 +37,9 @@ function preloadAppAfterShell(): Plugin {
         visit(app.fileName);
         const base = '/';
         return [
-          ...[...styles].map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', href: `${base}${file}` }, injectTo: 'head' as const })),
+          // crossorigin as on Vite's own stylesheet link for a dynamic import: a preload in another credentials
+          // mode is not reused, and the stylesheet would download twice.
+          ...[...styles].map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', crossorigin: true, href: `${base}${file}` }, injectTo: 'head' as const })),
           ...[...scripts].map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `${base}${file}` }, injectTo: 'head' as const })),
         ];
       },
