@@ -170,7 +170,7 @@ run_vitest() {
     --reporter=default --reporter=json "--outputFile.json=$report" --passWithNoTests
 }
 
-if wanted typecheck; then check "typecheck" pnpm -r typecheck || true; fi
+if wanted typecheck; then check "typecheck" pnpm typecheck || true; fi
 if wanted shared; then run_vitest "unit: shared" @hodboard/shared || true; fi
 if wanted web; then run_vitest "unit: web" @hodboard/web || true; fi
 if wanted api; then run_vitest "api" @hodboard/api || true; fi
