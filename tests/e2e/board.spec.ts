@@ -1,5 +1,5 @@
 import type { Locator, Page, TestInfo } from '@playwright/test';
-import { test, expect, apiAs, fillDate, isPhone, signIn, shot, DEMO_USERS, type Api } from './fixtures';
+import { test, expect, apiAs, confirmIfAsked, fillDate, isPhone, signIn, shot, DEMO_USERS, type Api } from './fixtures';
 
 interface CreatedJob {
   id: string;
@@ -33,18 +33,6 @@ async function crewCells(page: Page, crew: string): Promise<Array<{ date: string
   return cells.evaluateAll((elements) =>
     elements.map((el) => ({ date: (el as HTMLElement).dataset.date!, isWorking: (el as HTMLElement).dataset.working === 'true' })),
   );
-}
-
-/** Accepts the double-booking question when the chosen day is already taken (the demo board is full). */
-async function confirmIfAsked(page: Page, settled: Locator): Promise<void> {
-  const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
-  await expect(bookAnyway.or(settled).first()).toBeVisible({ timeout: 10_000 });
-  if (await bookAnyway.isVisible()) {
-    await bookAnyway.click();
-    // Until the question's dialog has finished closing (its button leaves the page last), it takes the next drag.
-    await expect(bookAnyway).toHaveCount(0);
-  }
-  await expect(settled).toBeVisible();
 }
 
 /**

@@ -82,6 +82,18 @@ export async function fillDate(field: Locator, iso: string): Promise<void> {
   await expect(field.page().getByRole('dialog', { name: 'Choose Date' })).toBeHidden();
 }
 
+/** Accepts the double-booking question when the chosen day is already taken (the demo board is full), and waits for what it settles to. */
+export async function confirmIfAsked(page: Page, settled: Locator): Promise<void> {
+  const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
+  await expect(bookAnyway.or(settled).first()).toBeVisible({ timeout: 10_000 });
+  if (await bookAnyway.isVisible()) {
+    await bookAnyway.click();
+    // Until the question's dialog has finished closing (its button leaves the page last), it takes the next drag.
+    await expect(bookAnyway).toHaveCount(0);
+  }
+  await expect(settled).toBeVisible();
+}
+
 export async function signInAs(page: Page, role: DemoRole): Promise<void> {
   await signIn(page, DEMO_USERS[role].email, DEMO_USERS[role].password);
 }
