@@ -41,7 +41,10 @@ export interface RuleReason {
   hours: number;
   message: string;
   source: string;
-  /** Beaufort force of the observed wind, on every wind reason. */
+  /**
+   * On every wind reason: the Beaufort force of the forecast mean wind at 10 m in the `at` hour. The scale
+   * describes mean wind, so a gust or a height-scaled figure never sets it; the message quotes the gust.
+   */
   beaufort?: { force: number; name: string };
 }
 

@@ -115,11 +115,37 @@ describe('wind limits', () => {
   });
 
   it('shows the Beaufort force on every wind reason', () => {
-    // Source: WMO Beaufort m/s table, 13.0 m/s is force 6
+    // Source: Met Office Beaufort scale (National Meteorological Library Fact Sheet 6, secondary copy): force 6 strong breeze is 22–27 kn, and 13.0 m/s = 25.3 kn; WMO m/s column 10.8–13.8
     const day = windDay('mewp', 13, 13);
     const r = reason(day, 'wind.mewp.gust');
     expect(r?.beaufort).toEqual({ force: 6, name: 'Strong breeze' });
-    expect(r?.message).toMatch(/force 6/);
+    expect(r?.message).toMatch(/force 6 strong breeze/);
+  });
+
+  it('takes the Beaufort force from the mean wind, not the gust, and quotes the gust on its own', () => {
+    // Source: Met Office Beaufort scale (Fact Sheet 6, secondary copy): force 2 light breeze is 4–6 kn, and a 3.0 m/s mean = 5.8 kn (WMO m/s column 1.6–3.3);
+    // the scale describes the mean wind, gusts are reported separately (trade-rules §1c, secondary copy). A 13 m/s gust alone would read force 6.
+    const r = reason(windDay('mewp', 3, 13), 'wind.mewp.gust');
+    expect(r).toMatchObject({ verdict: 'stop', observed: 13, beaufort: { force: 2, name: 'Light breeze' } });
+    expect(r?.message).toMatch(/^Gusts of 13\.0 m\/s \(29 mph\) \(forecast mean wind at 10 m 3\.0 m\/s \(7 mph\), force 2 light breeze\) reach the MEWP rated wind speed/);
+    expect(r?.message).not.toMatch(/force 6/);
+  });
+
+  it('takes the Beaufort force from the forecast at 10 m when the firm scales wind for height', () => {
+    // Source: Met Office Beaufort scale (Fact Sheet 6, secondary copy): force 3 gentle breeze is 7–10 kn, and a 5.0 m/s mean = 9.7 kn (WMO m/s column 3.4–5.4);
+    // the scale is defined for 10 m, so the × 1.5 working-height figure (13.5 m/s, force 6 if read on the scale) does not set it
+    const r = reason(windDay('mewp', 5, 9, resolveRuleSettings({ windHeightFactor: 1.5 })), 'wind.mewp.gust');
+    expect(r?.observed).toBeCloseTo(13.5, 9);
+    expect(r?.beaufort).toEqual({ force: 3, name: 'Gentle breeze' });
+    expect(r?.message).toMatch(/Gusts of 13\.5 m\/s \(30 mph\) \(forecast × 1\.50 for working height\) \(forecast mean wind at 10 m 5\.0 m\/s \(11 mph\), force 3 gentle breeze\)/);
+  });
+
+  it('quotes the gust beside the force on a mean-wind limit', () => {
+    // Source: Met Office Beaufort scale (Fact Sheet 6, secondary copy): force 5 fresh breeze is 17–21 kn, and 9.0 m/s = 17.5 kn (WMO m/s column 8.0–10.7);
+    // PASMA FAQ judges towers on the average wind (pasma.co.uk/faqs/safety)
+    const r = reason(windDay('tower', 9, 14), 'wind.tower.mean');
+    expect(r).toMatchObject({ verdict: 'stop', observed: 9, beaufort: { force: 5, name: 'Fresh breeze' } });
+    expect(r?.message).toMatch(/^Mean wind of 9\.0 m\/s \(20 mph\) \(force 5 fresh breeze; gusts 14\.0 m\/s \(31 mph\)\) reaches the mobile tower limit of 7\.6 m\/s \(17 mph\)/);
   });
 
   it('says the law sets no number for work at height and scaffold erection, and defers to a competent person', () => {

@@ -121,21 +121,29 @@ export function checkWind(ctx: HourContext, w: WindLimit, blocked: Uint8Array, o
   }
   if (worstAt < 0) return;
   const isStop = stopHours > 0;
-  const band = beaufortForce(worst);
-  const statText = gust ? 'Gusts' : 'Mean wind';
+  const hour = f[worstAt] as ForecastHour;
+  // The Beaufort scale describes the mean wind at 10 m, so the force comes from that hour's
+  // forecast mean, never from a gust or a height-scaled figure; the gust is quoted beside it.
+  const band = beaufortForce(hour.windMeanMs);
   const scaled = k !== 1 ? ` (forecast × ${fmt(k, 2)} for working height)` : '';
+  const force = `force ${band.force} ${band.name.toLowerCase()}`;
+  const mean10 = `forecast mean wind at 10 m ${speedText(hour.windMeanMs)}, ${force}`;
+  const observedText = gust
+    ? `Gusts of ${speedText(worst)}${scaled} (${mean10})`
+    : `Mean wind of ${speedText(worst)}${scaled} (${k !== 1 ? `${mean10}` : force}; gusts ${speedText(hour.windGustMs)})`;
+  const verb = isStop ? (gust ? 'reach' : 'reaches') : gust ? 'are near or over' : 'is near or over';
   const law = w.lawNamesNoNumber ? ' The law names no wind speed (WAHR 2005 reg 4; 29 CFR 1926.451(f)(12)); this is the firm’s threshold.' : '';
   const threshold = isStop ? stop : caution;
   const message = isStop
-    ? `${statText} of ${speedText(worst)}${scaled}, force ${band.force} ${band.name.toLowerCase()}, reach ${w.what} of ${speedText(stop)}: ${w.stopAdvice}.${law} ${DEFER}`
-    : `${statText} of ${speedText(worst)}${scaled}, force ${band.force} ${band.name.toLowerCase()}, are near or over ${w.what} of ${speedText(caution)}: take care at edges and secure loose materials.${law} ${DEFER}`;
+    ? `${observedText} ${verb} ${w.what} of ${speedText(stop)}: ${w.stopAdvice}.${law} ${DEFER}`
+    : `${observedText} ${verb} ${w.what} of ${speedText(caution)}: take care at edges and secure loose materials.${law} ${DEFER}`;
   out.push({
     ruleId: w.ruleId,
     verdict: isStop ? 'stop' : 'caution',
     threshold,
     unit: 'm/s',
     observed: worst,
-    at: (f[worstAt] as ForecastHour).time,
+    at: hour.time,
     hours: isStop ? stopHours : cautionHours,
     message,
     source: w.source,
