@@ -6,13 +6,13 @@ import cookieParser from 'cookie-parser';
 import express, { Router, type Express, type RequestHandler } from 'express';
 import helmet from 'helmet';
 import type { Logger } from 'pino';
-import { pinoHttp } from 'pino-http';
 import type { DataSource } from 'typeorm';
 import type { Clock } from './lib/clock.js';
 import { EventBus } from './lib/event-bus.js';
 import { authenticate } from './middleware/authenticate.js';
 import { notFoundHandler, problemHandler } from './middleware/problem.js';
 import { publicLinkLimiters, type LinkLimits } from './middleware/rate-limit.js';
+import { requestLogger } from './middleware/request-log.js';
 import { validationSpecOf, type ValidationSpec } from './middleware/validate.js';
 import { openApiRouter } from './openapi/router.js';
 import { accessBookingsRouter, suppliersRouter, supplierLinksRouter } from './routes/access.js';
@@ -265,7 +265,7 @@ export function createApp(deps: AppDeps, services: AppServices = createServices(
   // Phones on a weak signal: the app's scripts and the API's JSON shrink to about a quarter. Level 1 keeps nearly all of
   // that on repetitive JSON at a third of the CPU of the default level, which matters on the board's large reads.
   app.use(compression({ level: 1 }));
-  app.use(pinoHttp({ logger: deps.logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  app.use(requestLogger(deps.logger, (req) => req.url === '/api/health'));
   app.use(services.boards.invalidateOnWrite);
   const open = publicRouters(services, deps, signedIn);
   for (const { path: mount, router } of open.filter((entry) => entry.rawBody)) app.use(mount, router);
