@@ -37,12 +37,18 @@ const moveJob = async (startDate: string, workingDays = 3) => {
     .send({ crewId: ids.crewId, startDate, workingDays, version: job.body.assignment.version }).expect(200);
 };
 const bookingNow = async (id: string) => (await request(h.app).get(`/api/access-bookings/${id}`).set(owner.auth).expect(200)).body as AccessBookingDto;
-const linkToken = () => {
-  const mail = h.mailer.lastTo('hire@loftypoles.example');
-  const match = mail && /supplier-response\?token=([A-Za-z0-9_%-]+)/.exec(mail.text);
-  if (!match?.[1]) throw new Error('no supplier link mailed');
-  return decodeURIComponent(match[1]);
+/** The token of the answer page linked from the last e-mail to this supplier, read from the URL as a mail client would. */
+const mailedLinkToken = (to: string) => {
+  const mail = h.mailer.lastTo(to);
+  const href = mail && /https?:\/\/\S+/.exec(mail.text)?.[0];
+  if (!href) throw new Error(`no link mailed to ${to}`);
+  const url = new URL(href);
+  expect(url.pathname).toBe('/supplier-response');
+  const token = url.searchParams.get('token');
+  if (!token) throw new Error('the mailed link has no token');
+  return token;
 };
+const linkToken = () => mailedLinkToken('hire@loftypoles.example');
 
 describe('a booking that is only requested', () => {
   it('takes the window the job needs: up the working day before, down the working day after', async () => {
@@ -122,6 +128,87 @@ describe('a confirmed booking', () => {
     const board = (await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-12' }).set(owner.auth).expect(200)).body as BoardDto;
     expect(board.conflicts.filter((c) => c.kind === 'outside-access-window').map((c) => c.date)).toEqual(['2027-03-04', '2027-03-05']);
     expect(board.accessBands).toEqual([expect.objectContaining({ accessType: 'scaffold', erect: '2027-02-26', strike: '2027-03-04', state: 'confirmed' })]);
+  });
+});
+
+describe('supplier links across firms', () => {
+  /** A second firm with its own job, supplier and confirmed scaffold, whose job has moved: a live link of its own. */
+  async function otherFirmWithPendingChange() {
+    const b = await signUpFirm(h, 'Thistle Walls', 'owner@thistle.example');
+    const client = await request(h.app).post('/api/clients').set(b.auth).send({ name: 'Rowan Cottage' }).expect(201);
+    const site = await request(h.app).post('/api/sites').set(b.auth)
+      .send({ clientId: client.body.id, addressLine1: '14 Quarry Row', town: 'Fellside', postcode: 'FS2 7TB' }).expect(201);
+    const crew = await request(h.app).post('/api/crews').set(b.auth).send({ name: 'Slate crew', colour: '#665544' }).expect(201);
+    const job = await request(h.app).post('/api/jobs').set(b.auth)
+      .send({ clientId: client.body.id, siteId: site.body.id, title: 'Rebuild chimney stack', workTypes: ['repairs'], estimatedWorkingDays: 3 }).expect(201);
+    await request(h.app).post(`/api/jobs/${job.body.id}/status`).set(b.auth).send({ status: 'booked' }).expect(200);
+    const placed = await request(h.app).post('/api/assignments').set(b.auth).send({ jobId: job.body.id, crewId: crew.body.id, startDate: '2027-03-01' }).expect(201);
+    const supplier = await request(h.app).post('/api/suppliers').set(b.auth)
+      .send({ name: 'Birch Pole Access', email: 'desk@birchpole.example', weeklyRates: { scaffold: 21_000 } }).expect(201);
+    const booking = await request(h.app).post('/api/access-bookings').set(b.auth)
+      .send({ jobIds: [job.body.id], accessType: 'scaffold', supplierId: supplier.body.id, reference: 'BP-7781' }).expect(201);
+    await request(h.app).post(`/api/access-bookings/${booking.body.id}/state`).set(b.auth).send({ state: 'confirmed', version: booking.body.version }).expect(200);
+    await request(h.app).put(`/api/assignments/${placed.body.assignment.id}`).set(b.auth)
+      .send({ crewId: crew.body.id, startDate: '2027-03-15', workingDays: 3, version: placed.body.assignment.version }).expect(200);
+    return { auth: b.auth, firmId: b.session.firm.id, bookingId: booking.body.id as string, token: mailedLinkToken('desk@birchpole.example') };
+  }
+
+  /** Everything firm B has that a supplier answer could touch: its booking as its office sees it, its requests and its audit lines. */
+  async function stateOf(b: { auth: { Authorization: string }; firmId: string; bookingId: string }) {
+    return {
+      booking: (await request(h.app).get(`/api/access-bookings/${b.bookingId}`).set(b.auth).expect(200)).body as AccessBookingDto,
+      requests: await h.dataSource.query(`SELECT * FROM access_change_request WHERE firm_id = $1 ORDER BY created_at`, [b.firmId]),
+      audit: await h.dataSource.query(`SELECT id, action FROM audit_event WHERE firm_id = $1 ORDER BY at, id`, [b.firmId]),
+    };
+  }
+
+  it("firm A's mailed link reads and answers only A's booking, once; firm B's booking and requests stay as they were", async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    await moveJob('2027-03-10');
+    const tokenA = mailedLinkToken('hire@loftypoles.example');
+    const b = await otherFirmWithPendingChange();
+    const bBefore = await stateOf(b);
+    expect(bBefore.booking.pendingChange).toMatchObject({ status: 'pending', newErect: '2027-03-12', newStrike: '2027-03-18' });
+
+    const seen = await request(h.app).get(`/api/public/supplier-links/${tokenA}`).expect(200);
+    expect(seen.body).toEqual({
+      firmName: 'Gorse Hill Builders', supplierName: 'Lofty Poles Scaffolding', accessType: 'scaffold', jobReferences: [expect.any(String)],
+      siteAddress: '2 Sheepwash Lane, Lowmoor, LM3 9QD', oldErect: '2027-02-26', oldStrike: '2027-03-04', newErect: '2027-03-09', newStrike: '2027-03-15',
+      status: 'pending', expiresAt: expect.any(String),
+    });
+    for (const ofB of ['Thistle', 'Birch Pole', 'Quarry Row', 'BP-7781', b.bookingId, '2027-03-12']) expect(JSON.stringify(seen.body)).not.toContain(ofB);
+
+    // Unknown keys are stripped, so naming B's booking in the body cannot steer A's link to it.
+    const answered = await request(h.app).post(`/api/public/supplier-links/${tokenA}`).send({ answer: 'accept', bookingId: b.bookingId }).expect(200);
+    expect(answered.body).toMatchObject({ firmName: 'Gorse Hill Builders', status: 'accepted' });
+    expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15', pendingChange: null });
+    expect(await stateOf(b)).toEqual(bBefore);
+
+    // Single use: the answered link is refused for a second answer of either kind, and still leaves B alone.
+    for (const again of [{ answer: 'accept' }, { answer: 'propose', erectDate: '2027-03-11', strikeDate: '2027-03-19' }]) {
+      const res = await request(h.app).post(`/api/public/supplier-links/${tokenA}`).send(again).expect(401);
+      expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+      expect(res.body.code).toBe('token-invalid');
+    }
+    expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15' });
+    expect(await stateOf(b)).toEqual(bBefore);
+  });
+
+  it("firm B's link answers B's request and leaves firm A's booking untouched", async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    await moveJob('2027-03-10');
+    const aBefore = await stateOf({ auth: owner.auth, firmId: owner.session.firm.id, bookingId: booking.id });
+    const b = await otherFirmWithPendingChange();
+
+    const seen = await request(h.app).get(`/api/public/supplier-links/${b.token}`).expect(200);
+    expect(seen.body).toMatchObject({ firmName: 'Thistle Walls', supplierName: 'Birch Pole Access', siteAddress: '14 Quarry Row, Fellside, FS2 7TB' });
+    for (const ofA of ['Gorse', 'Lofty Poles', 'Sheepwash', booking.id]) expect(JSON.stringify(seen.body)).not.toContain(ofA);
+    await request(h.app).post(`/api/public/supplier-links/${b.token}`).send({ answer: 'propose', erectDate: '2027-03-11', strikeDate: '2027-03-19' }).expect(200);
+
+    expect((await stateOf(b)).booking).toMatchObject({ confirmedErect: '2027-03-11', confirmedStrike: '2027-03-19' });
+    expect(await stateOf({ auth: owner.auth, firmId: owner.session.firm.id, bookingId: booking.id })).toEqual(aBefore);
   });
 });
 
