@@ -19,7 +19,7 @@ cleanup() {
 trap cleanup EXIT
 psql_admin -c "DROP DATABASE IF EXISTS \"$pages_db\" WITH (FORCE)" -c "CREATE DATABASE \"$pages_db\""
 
-export DATABASE_URL="${DATABASE_URL%/*}/$pages_db" NODE_ENV=production HOST=127.0.0.1 LOG_LEVEL=warn AUTH_RATE_LIMIT=10000
+export DATABASE_URL="${DATABASE_URL%/*}/$pages_db" NODE_ENV=production HOST=127.0.0.1 LOG_LEVEL=warn AUTH_RATE_LIMIT=10000 AUTH_ADDRESS_RATE_LIMIT=10000
 # A build of its own, away from apps/web/dist: another build of the checkout may be running (Vite's lock on
 # the project only guards the one output folder, so it is bypassed for this separate one). Not under .data:
 # the static file server refuses paths through a dot folder.

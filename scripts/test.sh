@@ -180,7 +180,7 @@ e2e_prepare() {
   DATABASE_URL=$(pg_url "$HB_E2E_DB") pnpm --filter @hodboard/api migrate || return 1
   DATABASE_URL=$(pg_url "$HB_E2E_DB") pnpm --filter @hodboard/api seed || return 1
   # Every browser test signs in and opens e-mailed links from 127.0.0.1; the production limits would lock later tests out.
-  spawn "api" "$HB_RUN_DIR/api.log" env DATABASE_URL="$(pg_url "$HB_E2E_DB")" AUTH_RATE_LIMIT=10000 \
+  spawn "api" "$HB_RUN_DIR/api.log" env DATABASE_URL="$(pg_url "$HB_E2E_DB")" AUTH_RATE_LIMIT=10000 AUTH_ADDRESS_RATE_LIMIT=10000 \
     PUBLIC_LINK_RATE_LIMIT=10000 PUBLIC_LINK_MISS_LIMIT=10000 \
     pnpm --filter @hodboard/api start
   wait_for_http "$HB_LAST_PID" "$HB_RUN_DIR/api.log" "http://127.0.0.1:$PORT/api/health" 120

@@ -198,7 +198,7 @@ export interface RunningApi {
 export async function startApi(dataSource: DataSource, firm: SeededFirm, now: string): Promise<RunningApi> {
   const secret = 'bench-secret-bench-secret-bench-secret';
   const mailer = new MemoryMailer();
-  const deps: AppDeps = { dataSource, mailer, clock: () => new Date(now), logger: pino({ level: 'silent' }), jwtSecret: secret, appUrl: 'http://127.0.0.1', authAttemptsPerWindow: 1_000_000 };
+  const deps: AppDeps = { dataSource, mailer, clock: () => new Date(now), logger: pino({ level: 'silent' }), jwtSecret: secret, appUrl: 'http://127.0.0.1', authAttemptsPerWindow: 1_000_000, authAttemptsPerAddress: 1_000_000 };
   const services = createServices(deps);
   const server = createServer(createApp(deps, services));
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));

@@ -72,6 +72,7 @@ export interface AppDeps {
   accessTokenTtlSeconds?: number;
   refreshTokenTtlDays?: number;
   authAttemptsPerWindow?: number;
+  authAttemptsPerAddress?: number;
   /** Limits on the e-mailed links reached without an account; config.ts holds the defaults. */
   publicLinkLimits?: LinkLimits;
   webDist?: string;
@@ -200,7 +201,7 @@ export function resourceRouters(services: AppServices): Array<{ path: string; ro
  * Routes reached without a session (sign-in, e-mailed links, calendar apps, webhooks), by mount path.
  * `rawBody` ones are mounted before the JSON parser.
  */
-export function publicRouters(services: AppServices, deps: Pick<AppDeps, 'appUrl' | 'authAttemptsPerWindow' | 'publicLinkLimits'>, signedIn: RequestHandler = authenticate(services.auth)): Array<{ path: string; router: Router; rawBody?: boolean; guards?: RequestHandler[] }> {
+export function publicRouters(services: AppServices, deps: Pick<AppDeps, 'appUrl' | 'authAttemptsPerWindow' | 'authAttemptsPerAddress' | 'publicLinkLimits'>, signedIn: RequestHandler = authenticate(services.auth)): Array<{ path: string; router: Router; rawBody?: boolean; guards?: RequestHandler[] }> {
   const health = Router();
   health.get('/', (_req, res) => {
     res.json({ status: 'ok' });
@@ -213,6 +214,7 @@ export function publicRouters(services: AppServices, deps: Pick<AppDeps, 'appUrl
     { path: '/api/auth', router: authRouter(services.auth, signedIn, {
       secureCookies: deps.appUrl.startsWith('https://'),
       attemptsPerWindow: deps.authAttemptsPerWindow ?? 20,
+      attemptsPerAddress: deps.authAttemptsPerAddress ?? 100,
     }) },
     { path: '/api/public/supplier-links', router: supplierLinksRouter(services.access), guards: linkLimits },
     { path: '/api/public/calendar', router: publicCalendarRouter(services.calendarFeeds) },
@@ -251,7 +253,7 @@ export function listResourceRoutes(services: AppServices): RouteInfo[] {
 }
 
 /** The same for the routes reached without a session. */
-export function listPublicRoutes(services: AppServices, deps: Pick<AppDeps, 'appUrl' | 'authAttemptsPerWindow' | 'publicLinkLimits'>): RouteInfo[] {
+export function listPublicRoutes(services: AppServices, deps: Pick<AppDeps, 'appUrl' | 'authAttemptsPerWindow' | 'authAttemptsPerAddress' | 'publicLinkLimits'>): RouteInfo[] {
   return routesOf(publicRouters(services, deps));
 }
 

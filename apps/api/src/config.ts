@@ -16,6 +16,7 @@ const configSchema = z.object({
   WEB_DIST: z.string().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   AUTH_RATE_LIMIT: z.coerce.number().int().min(1).default(20),
+  AUTH_ADDRESS_RATE_LIMIT: z.coerce.number().int().min(1).default(100),
   PUBLIC_LINK_RATE_LIMIT: z.coerce.number().int().min(1).default(120),
   PUBLIC_LINK_MISS_LIMIT: z.coerce.number().int().min(1).default(20),
   S3_ENDPOINT: z.url().default('http://127.0.0.1:4569'),

@@ -24,6 +24,7 @@ const deps = {
   accessTokenTtlSeconds: config.ACCESS_TOKEN_TTL_SECONDS,
   refreshTokenTtlDays: config.REFRESH_TOKEN_TTL_DAYS,
   authAttemptsPerWindow: config.AUTH_RATE_LIMIT,
+  authAttemptsPerAddress: config.AUTH_ADDRESS_RATE_LIMIT,
   publicLinkLimits: { requests: config.PUBLIC_LINK_RATE_LIMIT, misses: config.PUBLIC_LINK_MISS_LIMIT },
   webDist: config.WEB_DIST,
   storage: new S3Storage(storageOptionsFrom(config)),

@@ -147,13 +147,39 @@ describe('invitations and password resets', () => {
   });
 });
 
+function expectRateLimited(res: request.Response): void {
+  expect(res.status).toBe(429);
+  expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+  expect(res.body).toMatchObject({ type: '/problems/rate-limited', title: expect.any(String), status: 429, code: 'rate-limited', detail: expect.any(String) });
+}
+
 describe('rate limits', () => {
-  it('answers 429 problem JSON once the sign-in attempts run out', async () => {
+  const routes: Array<[string, (i: number) => object, number]> = [
+    ['/api/auth/sign-in', () => ({ email: 'x@example.org', password: 'wrong-password' }), 401],
+    ['/api/auth/forgot-password', () => ({ email: 'x@example.org' }), 202],
+    ['/api/auth/reset-password', (i) => ({ token: `not-a-real-reset-token-${i}`, password: 'Brand-new-pass-7' }), 401],
+  ];
+
+  it.each(routes)('answers %s with 429 problem JSON once the attempts for one e-mail run out', async (path, body, ordinary) => {
     const limited = await createHarness({ authAttemptsPerWindow: 3 });
-    const attempt = () => request(limited.app).post('/api/auth/sign-in').send({ email: 'x@example.org', password: 'wrong-password' });
-    for (let i = 0; i < 3; i += 1) expect((await attempt()).status).toBe(401);
-    const blocked = await attempt();
-    expect(blocked.status).toBe(429);
-    expect(blocked.body.code).toBe('rate-limited');
+    for (let i = 0; i < 3; i += 1) expect((await request(limited.app).post(path).send(body(i))).status).toBe(ordinary);
+    expectRateLimited(await request(limited.app).post(path).send(body(3)));
+  });
+
+  it.each(routes)('caps %s per address across different e-mails', async (path, body, ordinary) => {
+    const limited = await createHarness({ authAttemptsPerWindow: 3, authAttemptsPerAddress: 5 });
+    // A fresh e-mail each time, so only the per-address ceiling can stop them.
+    const attempt = (i: number) => request(limited.app).post(path).send({ ...body(i), email: `person${i}@example.org` });
+    for (let i = 0; i < 5; i += 1) expect((await attempt(i)).status).toBe(ordinary);
+    expectRateLimited(await attempt(5));
+  });
+
+  it('shares the per-address ceiling between sign-in and the reset steps', async () => {
+    const limited = await createHarness({ authAttemptsPerWindow: 100, authAttemptsPerAddress: 4 });
+    await request(limited.app).post('/api/auth/sign-in').send({ email: 'a@example.org', password: 'wrong-password' }).expect(401);
+    await request(limited.app).post('/api/auth/forgot-password').send({ email: 'b@example.org' }).expect(202);
+    await request(limited.app).post('/api/auth/reset-password').send({ token: 'not-a-real-reset-token-0', password: 'Brand-new-pass-7' }).expect(401);
+    await request(limited.app).post('/api/auth/sign-in').send({ email: 'c@example.org', password: 'wrong-password' }).expect(401);
+    expectRateLimited(await request(limited.app).post('/api/auth/forgot-password').send({ email: 'd@example.org' }));
   });
 });

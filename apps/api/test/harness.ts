@@ -40,6 +40,7 @@ export async function createHarness(overrides: Partial<AppDeps> = {}): Promise<H
     jwtSecret: TEST_SECRET,
     appUrl: 'http://localhost:3000',
     authAttemptsPerWindow: 1000,
+    authAttemptsPerAddress: 1000,
     publicLinkLimits: { requests: 100_000, misses: 100_000 },
     ...overrides,
   };
