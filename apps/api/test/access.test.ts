@@ -122,6 +122,74 @@ describe('a confirmed booking', () => {
     expect(JSON.stringify(res.body)).not.toContain('Gorse');
   });
 
+  const requestRows = async (bookingId: string) =>
+    (await h.dataSource.query(`SELECT status FROM access_change_request WHERE booking_id = $1 ORDER BY created_at`, [bookingId])) as Array<{ status: string }>;
+  const supplierAudit = async (bookingId: string) =>
+    (await h.dataSource.query(`SELECT action FROM audit_event WHERE entity_id = $1 AND action LIKE 'supplier-%'`, [bookingId])) as unknown[];
+
+  it.each([
+    ['cancelled', 'cancelled this booking'],
+    ['requested', 'back to a request'],
+  ] as const)('withdraws the waiting request when the booking is %s, and the link then refuses an answer', async (state, detail) => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    const token = linkToken();
+    const now = await bookingNow(booking.id);
+    const after = (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state, version: now.version }).expect(200)).body as AccessBookingDto;
+    expect(after.pendingChange).toBeNull();
+    expect(await requestRows(booking.id)).toEqual([{ status: 'withdrawn' }]);
+
+    expect((await request(h.app).get(`/api/public/supplier-links/${token}`).expect(200)).body).toMatchObject({ status: 'withdrawn' });
+    const res = await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'accept' }).expect(409);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toMatchObject({ code: 'conflict', status: 409 });
+    expect(res.body.detail).toContain(detail);
+    expect(await bookingNow(booking.id)).toMatchObject({ state, confirmedErect: after.confirmedErect, confirmedStrike: after.confirmedStrike, version: after.version });
+    expect(await supplierAudit(booking.id)).toEqual([]);
+  });
+
+  it("closes a supplier's counter-proposal when the booking goes back to a request", async () => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    await request(h.app).post(`/api/public/supplier-links/${linkToken()}`).send({ answer: 'propose', erectDate: '2027-03-08', strikeDate: '2027-03-16' }).expect(200);
+    const now = await bookingNow(booking.id);
+    expect(now.pendingChange).toMatchObject({ status: 'countered' });
+    const after = (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'requested', version: now.version }).expect(200)).body as AccessBookingDto;
+    expect(after.pendingChange).toBeNull();
+    expect(await requestRows(booking.id)).toEqual([{ status: 'withdrawn' }]);
+  });
+
+  it('withdraws a new strike date asked of the supplier once the scaffold is struck, and refuses the answer', async () => {
+    const booking = await confirmed();
+    h.now.value = new Date('2027-02-26T15:00:00Z');
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: booking.version }).expect(200);
+    await moveJob('2027-03-01', 5);
+    // Once up, only the strike moves: the working day after Fri 5 March is Mon 8 March.
+    expect((await bookingNow(booking.id)).pendingChange).toMatchObject({ status: 'pending', newErect: '2027-02-26', newStrike: '2027-03-08' });
+    const token = linkToken();
+    h.now.value = new Date('2027-03-04T15:00:00Z');
+    const now = await bookingNow(booking.id);
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'struck', version: now.version }).expect(200);
+    expect(await requestRows(booking.id)).toEqual([{ status: 'withdrawn' }]);
+    const res = await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'propose', erectDate: '2027-02-26', strikeDate: '2027-03-09' }).expect(409);
+    expect(res.body.detail).toContain('struck');
+    expect(await bookingNow(booking.id)).toMatchObject({ state: 'struck', confirmedStrike: '2027-03-04' });
+    expect(await supplierAudit(booking.id)).toEqual([]);
+  });
+
+  it('refuses an answer for a booking that is no longer confirmed even if its request was left open', async () => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    // As if the booking had been cancelled before requests were closed with it.
+    await h.dataSource.query(`UPDATE access_booking SET state = 'cancelled' WHERE id = $1`, [booking.id]);
+    const res = await request(h.app).post(`/api/public/supplier-links/${linkToken()}`).send({ answer: 'accept' }).expect(409);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body.detail).toContain('cancelled this booking');
+    expect(await requestRows(booking.id)).toEqual([{ status: 'pending' }]);
+    expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-02-26', confirmedStrike: '2027-03-04' });
+    expect(await supplierAudit(booking.id)).toEqual([]);
+  });
+
   it('flags the job days outside the confirmed window on the board', async () => {
     await confirmed();
     await moveJob('2027-03-03', 3);

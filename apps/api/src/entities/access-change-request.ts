@@ -14,7 +14,8 @@ export class AccessChangeRequest {
   bookingId: string;
 
   @Column({ type: 'text', default: 'pending' })
-  status: 'pending' | 'accepted' | 'countered' | 'superseded';
+  /** withdrawn: closed because the booking was cancelled, struck or taken back to a request. */
+  status: 'pending' | 'accepted' | 'countered' | 'superseded' | 'withdrawn';
 
   @Column({ name: 'old_erect', type: 'date', nullable: true })
   oldErect: string | null;

@@ -56,6 +56,8 @@ export type AfterCommit = () => Promise<void>;
 
 const LINK_TTL_MS = 14 * 24 * 3_600_000;
 const LIVE_STATES: ReadonlySet<AccessState> = new Set(['requested', 'confirmed', 'erected']);
+/** Only dates agreed with the supplier can be changed by the supplier's answer. */
+const ANSWERABLE_STATES: ReadonlySet<AccessState> = new Set(['confirmed', 'erected']);
 const HEIGHT_ACCESS = new Set(['scaffold', 'tower', 'mewp', 'edge-protection']);
 /** The wind limits that count as adverse weather for each kind of access standing on site. */
 const EXPOSED_ACTIVITY: Record<AccessType, Activity> = {
@@ -200,6 +202,8 @@ export class AccessService {
       if (input.state === 'erected') booking.erectedOn = today;
       if (input.state === 'struck') booking.struckOn = today;
       const saved = await manager.save(booking);
+      // Dates asked of the supplier mean nothing once the booking is no longer agreed with them.
+      if (!ANSWERABLE_STATES.has(input.state)) await this.closeOpenRequests(manager, id, 'withdrawn');
       await recordAudit(manager, actor, { entity: 'access-booking', entityId: id, action: `state-${input.state}`, before, after: saved });
       return saved;
     });
@@ -382,6 +386,7 @@ export class AccessService {
   async answerSupplierLink(token: string, answer: SupplierAnswer): Promise<SupplierLinkDto> {
     const booking = await this.dataSource.transaction(async (manager) => {
       const { request, booking } = await this.requestForToken(manager, token, true);
+      if (request.status === 'withdrawn' || !ANSWERABLE_STATES.has(booking.state)) throw errors.conflict(noLongerAnswerable(booking.state));
       if (request.status !== 'pending') throw errors.tokenInvalid('This link has already been answered.');
       const firm = await manager.findOneByOrFail(Firm, { id: booking.firmId });
       const supplier = await manager.findOneByOrFail(Supplier, { id: booking.supplierId });
@@ -489,6 +494,11 @@ export class AccessService {
     if (days.length === 0) return null;
     const window = accessWindowFor(days, { calendar: calendars.firmCalendar, erectLeadWorkingDays: 1, curingDays });
     return { erect: window.erectBy, strike: window.strikeFrom };
+  }
+
+  /** Closes the requests still waiting on the supplier or showing their counter-proposal. */
+  private async closeOpenRequests(manager: EntityManager, bookingId: string, status: 'superseded' | 'withdrawn'): Promise<void> {
+    await manager.update(AccessChangeRequest, { bookingId, status: In(['pending', 'countered']) }, { status });
   }
 
   private async supersedePending(manager: EntityManager, bookingId: string): Promise<void> {
@@ -734,6 +744,16 @@ function addDaysIso(date: string, days: number): string {
   const d = new Date(`${date}T00:00:00Z`);
   d.setUTCDate(d.getUTCDate() + days);
   return d.toISOString().slice(0, 10);
+}
+
+/** What a supplier is told when their link no longer has dates to answer. */
+function noLongerAnswerable(state: AccessState): string {
+  switch (state) {
+    case 'cancelled': return 'The firm has cancelled this booking, so there are no new dates to answer.';
+    case 'struck': return 'This access has been struck, so its dates can no longer change.';
+    case 'requested': return 'The firm has taken this booking back to a request and no longer asks for these dates; they will be in touch.';
+    default: return 'The firm has withdrawn this request; look for their latest e-mail.';
+  }
 }
 
 function formatPounds(pence: number): string {

@@ -82,7 +82,8 @@ export interface InspectionStatusDto {
 
 export interface AccessChangeRequestDto {
   id: string;
-  status: 'pending' | 'accepted' | 'countered' | 'superseded';
+  /** superseded: replaced by a newer request; withdrawn: the booking was cancelled, struck or taken back to a request. */
+  status: 'pending' | 'accepted' | 'countered' | 'superseded' | 'withdrawn';
   oldErect: string | null;
   oldStrike: string | null;
   newErect: string;
