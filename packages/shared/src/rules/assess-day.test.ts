@@ -3,12 +3,12 @@ import { describe, expect, it } from 'vitest';
 import { activities } from './activities.js';
 import { assessDay, assessDayInputSchema, worseVerdict } from './assess-day.js';
 import { daylight, workingWindow } from './daylight.js';
-import { DAY, hourlyForecast, inWindow, WINDOW } from './fixtures/forecast-builder.js';
+import { DAY, FULL_HOURS, hourlyForecast, inWindow, WINDOW } from './fixtures/forecast-builder.js';
 import { resolveRuleSettings } from './settings.js';
 
 describe('assessDay', () => {
   it('gives go with the whole window usable on a calm mild day', () => {
-    const day = assessDay({ activities: ['bricklaying', 'mewp'], forecast: hourlyForecast(DAY), window: WINDOW });
+    const day = assessDay({ activities: ['bricklaying', 'mewp'], forecast: hourlyForecast(DAY, FULL_HOURS), window: WINDOW });
     expect(day.verdict).toBe('go');
     expect(day.windowHours).toBe(9);
     expect(day.activities.map((a) => [a.activity, a.verdict, a.usableHours, a.reasons.length])).toEqual([
@@ -19,7 +19,7 @@ describe('assessDay', () => {
   });
 
   it('takes the worst verdict of the day’s activities', () => {
-    const forecast = hourlyForecast(DAY, 72, (h) => (inWindow(h) ? { windMeanMs: 9, windGustMs: 16 } : {}));
+    const forecast = hourlyForecast(DAY, FULL_HOURS, (h) => (inWindow(h) ? { windMeanMs: 9, windGustMs: 16 } : {}));
     const day = assessDay({ activities: ['bricklaying', 'work-at-height', 'mewp'], forecast, window: WINDOW });
     expect(day.activities.map((a) => a.verdict)).toEqual(['go', 'caution', 'stop']);
     expect(day.verdict).toBe('stop');
@@ -39,7 +39,7 @@ describe('assessDay', () => {
 
   it('stops fresh mortar work when rain stops part of the day, though enough dry hours are left to start', () => {
     // Source: NBS F10/185 cover the work during rain (secondary copy); 0.5 mm/h at 50 % stops fresh work, common practice, no source
-    const forecast = hourlyForecast(DAY, 72, (h) => (h >= 9 && h < 15 ? { precipMm: 2.5, precipProbability: 0.85 } : {}));
+    const forecast = hourlyForecast(DAY, FULL_HOURS, (h) => (h >= 9 && h < 15 ? { precipMm: 2.5, precipProbability: 0.85 } : {}));
     const day = assessDay({ activities: [{ activity: 'bricklaying' }, 'groundworks'], forecast, window: WINDOW });
     const brick = day.activities[0];
     expect(brick?.usableHours).toBe(3);

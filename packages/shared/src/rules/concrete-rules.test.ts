@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { assessDay, type DayAssessment } from './assess-day.js';
-import { DAY, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
+import { DAY, FULL_HOURS, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
 import { defaultRuleSettings, resolveRuleSettings, type RuleSettings } from './settings.js';
 import { fToC } from './units.js';
 
-function pour(at: (h: number) => Partial<HourValues>, settings: RuleSettings = defaultRuleSettings): DayAssessment {
-  return assessDay({ activities: ['concrete'], forecast: hourlyForecast(DAY, 72, at), window: WINDOW, settings });
+function pour(at: (h: number) => Partial<HourValues>, settings: RuleSettings = defaultRuleSettings, hours = FULL_HOURS): DayAssessment {
+  return assessDay({ activities: ['concrete'], forecast: hourlyForecast(DAY, hours, at), window: WINDOW, settings });
 }
 const find = (d: DayAssessment, id: string) => d.activities[0]?.reasons.find((r) => r.ruleId === id);
 
@@ -27,6 +27,26 @@ describe('concrete in cold weather', () => {
     const r = find(pour((h) => (h === 30 ? { tempC: t } : {})), 'cold.concrete.aci306');
     if (expected === 'none') expect(r).toBeUndefined();
     else expect(r).toMatchObject({ verdict: 'caution', at: '2026-03-03T06:00:00.000Z' });
+  });
+
+  it.each([
+    [8 + 71, 'caution'], // Source: ACI 306R (concrete.org) — expected below 40 °F during the protection period; 72 h period from memory: the hour 71–72 h after the 08:00 start is inside
+    [8 + 72, 'none'], // Source: ACI 306R (concrete.org); 72 h period from memory: the hour starting 72 h after the start is outside
+  ])('a cold hour at forecast hour %d, at the +72 h edge of the protection period → %s', (h, expected) => {
+    const r = find(pour((i) => (i === h ? { tempC: 1 } : {})), 'cold.concrete.aci306');
+    if (expected === 'none') expect(r).toBeUndefined();
+    else expect(r).toMatchObject({ verdict: 'caution', observed: 1, at: '2026-03-05T07:00:00.000Z' });
+  });
+
+  it('says when the forecast ends before the 72 h protection period does, and which hours it leaves out', () => {
+    // Source: ACI 306R (concrete.org); 72 h protection period from memory. A 72 h forecast from midnight stops 64 h after the 08:00 start (Hodboard rule: say so)
+    const day = pour(() => ({}), defaultRuleSettings, 72);
+    expect(find(day, 'cold.concrete.aci306')).toBeUndefined();
+    const r = find(day, 'forecast.reach.concrete-protection');
+    expect(r).toMatchObject({ verdict: 'caution', threshold: 72, observed: 64, uncovered: [{ from: '2026-03-05T00:00:00.000Z', to: '2026-03-05T08:00:00.000Z' }] });
+    expect(r?.message).toMatch(/64–72 h after the working window starts \(2026-03-05 00:00 UTC to 2026-03-05 08:00 UTC\)/);
+    expect(day.verdict).toBe('caution');
+    expect(find(pour(() => ({})), 'forecast.reach.concrete-protection')).toBeUndefined();
   });
 
   it('judges ACI 306R cold weather under US practice too, without the UK discharge rule', () => {

@@ -1,4 +1,4 @@
-import { coldestAhead, fmt, HOUR, tempReason, windowExtreme, type HourContext, type RuleReason } from './forecast.js';
+import { coldestAhead, fmt, HOUR, lookAheadCover, lookAheadReason, tempReason, windowExtreme, type HourContext, type RuleReason } from './forecast.js';
 import { SOURCES } from './sources.js';
 import { cToF } from './units.js';
 
@@ -33,13 +33,22 @@ export function checkUkConcreteDischarge(ctx: HourContext, out: RuleReason[]): v
 /** ACI 306R: cold weather if the air is at or expected below 40 °F at any time in the protection period. */
 export function checkConcreteColdWeather(ctx: HourContext, out: RuleReason[]): void {
   const s = ctx.settings;
-  const cold = coldestAhead(ctx, ctx.windowStart + s.concreteProtectionHours * HOUR, s.concreteColdAtOrBelowC);
-  if (!cold) return;
-  out.push(tempReason(ctx, cold, {
-    ruleId: 'cold.concrete.aci306',
-    verdict: 'caution',
-    threshold: s.concreteColdAtOrBelowC,
-    message: `Air down to ${fmt(cToF(cold.tempC), 0)} °F (${fmt(cold.tempC)} °C) within ${s.concreteProtectionHours} h of placing: cold-weather concreting. Protect from freezing until about 500 psi (3.5 MPa), normally the first 24 h, with blankets or heated enclosures. ${DEFER}`,
-    source: SOURCES.aci306,
-  }));
+  const until = ctx.windowStart + s.concreteProtectionHours * HOUR;
+  const cold = coldestAhead(ctx, until, s.concreteColdAtOrBelowC);
+  if (cold) {
+    out.push(tempReason(ctx, cold, {
+      ruleId: 'cold.concrete.aci306',
+      verdict: 'caution',
+      threshold: s.concreteColdAtOrBelowC,
+      message: `Air down to ${fmt(cToF(cold.tempC), 0)} °F (${fmt(cold.tempC)} °C) within ${s.concreteProtectionHours} h of placing: cold-weather concreting. Protect from freezing until about 500 psi (3.5 MPa), normally the first 24 h, with blankets or heated enclosures. ${DEFER}`,
+      source: SOURCES.aci306,
+    }));
+  }
+  const cover = lookAheadCover(ctx, until);
+  if (cover) {
+    out.push(lookAheadReason(
+      ctx, cover, 'forecast.reach.concrete-protection', `concrete protection period (${s.concreteProtectionHours} h from the start of work)`,
+      'Cold weather then (air at or below 40 °F / 4.4 °C) is not ruled out: check the forecast again before then and keep blankets or an enclosure to hand.', DEFER, SOURCES.forecastReach,
+    ));
+  }
 }

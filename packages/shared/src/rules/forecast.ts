@@ -46,6 +46,14 @@ export interface RuleReason {
    * describes mean wind, so a gust or a height-scaled figure never sets it; the message quotes the gust.
    */
   beaufort?: { force: number; name: string };
+  /** On a look-ahead reason about the forecast's reach: the spans of the period no forecast hour covers. */
+  uncovered?: ForecastGap[];
+}
+
+/** A span with no forecast, [from, to). */
+export interface ForecastGap {
+  from: IsoInstant;
+  to: IsoInstant;
 }
 
 export const HOUR = 3_600_000;
@@ -168,6 +176,84 @@ export function coldestAhead(ctx: HourContext, untilMs: number, atOrBelowC: numb
     }
   }
   return at < 0 ? null : { tempC: coldest, at, stop };
+}
+
+/** How much of a look-ahead period the forecast covers, with the spans (epoch ms, [from, to)) it does not. */
+export interface LookAheadCover {
+  periodHours: number;
+  coveredHours: number;
+  gaps: Array<[number, number]>;
+}
+
+/**
+ * The part of [window start, `untilMs`) that no forecast hour covers (each hour stands for the hour
+ * from its `time`, cut short by the next reading); null when the forecast covers all of it.
+ * Look-ahead rules use it to say how far they could see instead of passing over missing hours.
+ */
+export function lookAheadCover(ctx: HourContext, untilMs: number): LookAheadCover | null {
+  const from = ctx.windowStart;
+  if (!(untilMs > from)) return null;
+  const n = ctx.forecast.length;
+  const periodHours = (untilMs - from) / HOUR;
+  const first = ctx.i1 > ctx.i0 ? ctx.i0 : indexAtOrAfter(ctx, from - HOUR + 1);
+  const stop = indexAtOrAfter(ctx, untilMs, first);
+  if (stop <= first) return { periodHours, coveredHours: 0, gaps: [[from, untilMs]] };
+  const t0 = timeAt(ctx, first);
+  const last = timeAt(ctx, stop - 1);
+  // Forecasts are hourly: a run whose first and last hours are as far apart as its count says is
+  // taken as gap-free, so only its end needs reading (two lookups in the common case). Anything
+  // else is walked hour by hour.
+  if (t0 <= from && last - t0 === (stop - 1 - first) * HOUR) {
+    const end = last + HOUR;
+    if (end >= untilMs) return null;
+    return { periodHours, coveredHours: (end - from) / HOUR, gaps: [[end, untilMs]] };
+  }
+  const gaps: Array<[number, number]> = [];
+  let covered = 0;
+  let cursor = from;
+  for (let i = first; i < stop; i++) {
+    const t = timeAt(ctx, i);
+    const next = i + 1 < n ? Math.min(t + HOUR, timeAt(ctx, i + 1)) : t + HOUR;
+    const a = Math.max(t, cursor);
+    const b = Math.min(next, untilMs);
+    if (b <= a) continue;
+    if (a > cursor) gaps.push([cursor, a]);
+    covered += b - a;
+    cursor = b;
+  }
+  if (cursor < untilMs) gaps.push([cursor, untilMs]);
+  return gaps.length === 0 ? null : { periodHours, coveredHours: covered / HOUR, gaps };
+}
+
+const utcText = (iso: IsoInstant): string => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+const hoursText = (h: number): string => String(Math.round(h * 100) / 100);
+
+/**
+ * A caution that a look-ahead rule could not see its whole period: the forecast ends (or has
+ * holes) before the period does, so the rule was checked on the hours it has and no others.
+ */
+export function lookAheadReason(
+  ctx: HourContext, cover: LookAheadCover, ruleId: string, period: string, risk: string, defer: string, source: string,
+): RuleReason {
+  const uncovered: ForecastGap[] = [];
+  const spans: string[] = [];
+  for (const [a, b] of cover.gaps) {
+    const g = { from: new Date(a).toISOString(), to: new Date(b).toISOString() };
+    uncovered.push(g);
+    spans.push(`${hoursText((a - ctx.windowStart) / HOUR)}–${hoursText((b - ctx.windowStart) / HOUR)} h after the working window starts (${utcText(g.from)} to ${utcText(g.to)})`);
+  }
+  return {
+    ruleId,
+    verdict: 'caution',
+    threshold: cover.periodHours,
+    unit: 'h',
+    observed: cover.coveredHours,
+    at: null,
+    hours: 0,
+    message: `The forecast covers only ${hoursText(cover.coveredHours)} h of the ${hoursText(cover.periodHours)} h ${period}: no forecast for ${spans.join('; ')}. ${risk} ${defer}`,
+    source,
+    uncovered,
+  };
 }
 
 /** A temperature reason at the hour `extreme` names. */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Activity, MortarKind } from './activities.js';
 import { assessDay, type DayAssessment } from './assess-day.js';
-import { DAY, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
+import { DAY, FULL_HOURS, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
 import type { RuleReason } from './forecast.js';
 import { canLayInCold, usColdBandFor } from './mortar-rules.js';
 import { defaultRuleSettings, resolveRuleSettings, type RuleSettings } from './settings.js';
@@ -12,11 +12,11 @@ const us = resolveRuleSettings({ practice: 'us' });
 
 /** One working hour at 08:00 with `first`; the 09:00 reading sets the trend. */
 function hourAt(activity: Activity, mortar: MortarKind, first: Partial<HourValues>, next: Partial<HourValues>, settings: RuleSettings = defaultRuleSettings): DayAssessment {
-  const forecast = hourlyForecast(DAY, 72, (h) => (h === 8 ? first : h === 9 ? next : {}));
+  const forecast = hourlyForecast(DAY, FULL_HOURS, (h) => (h === 8 ? first : h === 9 ? next : {}));
   return assessDay({ activities: [{ activity, mortar }], forecast, window: ONE_HOUR, settings });
 }
 
-function dayWith(activity: Activity, at: (h: number) => Partial<HourValues>, settings: RuleSettings = defaultRuleSettings, hours = 72): DayAssessment {
+function dayWith(activity: Activity, at: (h: number) => Partial<HourValues>, settings: RuleSettings = defaultRuleSettings, hours = FULL_HOURS): DayAssessment {
   return assessDay({ activities: [activity], forecast: hourlyForecast(DAY, hours, at), window: WINDOW, settings });
 }
 
@@ -58,7 +58,10 @@ describe('UK cold weather for mortar', () => {
     expect(canLayInCold(2, 1, 3, 1)).toBe(true);
     expect(canLayInCold(2, -1, 3, 1)).toBe(false);
     const forecast = hourlyForecast(DAY, 10, (h) => (h === 8 ? { tempC: 1 } : h === 9 ? { tempC: 2 } : {}));
-    const day = assessDay({ activities: ['bricklaying'], forecast, window: { start: '2026-03-02T09:00:00Z', end: '2026-03-02T10:00:00Z' } });
+    // Frost look-ahead off: ten hours of forecast cannot reach six days, and that caution is not the point here.
+    const settings = resolveRuleSettings({ frostProtectionDays: 0 });
+    const day = assessDay({ activities: ['bricklaying'], forecast, window: { start: '2026-03-02T09:00:00Z', end: '2026-03-02T10:00:00Z' }, settings });
+    expect(find(day, 'cold.mortar.cement')).toBeUndefined();
     expect(day.verdict).toBe('go');
   });
 
@@ -83,6 +86,51 @@ describe('UK cold weather for mortar', () => {
     const beyond = dayWith('pointing', (h) => (h === 8 + 6 * 24 ? { tempC: -2 } : {}), defaultRuleSettings, 8 * 24);
     expect(find(within, 'cold.mortar.frost-protection')).toBeDefined();
     expect(find(beyond, 'cold.mortar.frost-protection')).toBeUndefined();
+  });
+
+  it('says when the forecast ends before the six days are out, and which hours it leaves out', () => {
+    // Source: NHBC Standards 2023 §3.2.5, frost protection for up to six days (144 h from the 08:00 start);
+    // a 72 h forecast from midnight reaches only 64 h of them (Hodboard rule: look-ahead rules say what they could not see)
+    const day = dayWith('bricklaying', () => ({}), defaultRuleSettings, 72);
+    expect(find(day, 'cold.mortar.frost-protection')).toBeUndefined();
+    const r = find(day, 'forecast.reach.frost-protection');
+    expect(r).toMatchObject({
+      verdict: 'caution',
+      threshold: 144,
+      observed: 64,
+      unit: 'h',
+      at: null,
+      uncovered: [{ from: '2026-03-05T00:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }],
+    });
+    expect(r?.message).toMatch(/covers only 64 h of the 144 h frost-protection period/);
+    expect(r?.message).toMatch(/64–144 h after the working window starts \(2026-03-05 00:00 UTC to 2026-03-08 08:00 UTC\)/);
+    expect(day.verdict).toBe('caution');
+  });
+
+  it.each([
+    [8 + 144, 'none'], // Source: NHBC Standards 2023 §3.2.5, six days; the forecast's last hour ends exactly 144 h after the 08:00 start
+    [8 + 143, 'caution'], // Source: NHBC Standards 2023 §3.2.5, six days; one hour short (143–144 h) is reported (Hodboard rule)
+  ])('with %d forecast hours from midnight the six-day frost period is %s short', (hours, expected) => {
+    const r = find(dayWith('pointing', () => ({}), defaultRuleSettings, hours), 'forecast.reach.frost-protection');
+    if (expected === 'none') expect(r).toBeUndefined();
+    else expect(r).toMatchObject({ observed: 143, uncovered: [{ from: '2026-03-08T07:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }] });
+  });
+
+  it('reports hours missing inside the frost period as well as at its end', () => {
+    // Source: NHBC Standards 2023 §3.2.5, six days of frost protection; Hodboard rule: missing hours are reported, never passed over
+    const forecast = hourlyForecast(DAY, FULL_HOURS).filter((_, h) => h !== 40 && h !== 41);
+    const day = assessDay({ activities: ['bricklaying'], forecast, window: WINDOW });
+    expect(find(day, 'forecast.reach.frost-protection')).toMatchObject({
+      observed: 142,
+      uncovered: [{ from: '2026-03-03T16:00:00.000Z', to: '2026-03-03T18:00:00.000Z' }],
+    });
+  });
+
+  it('still warns of frost it can see when the forecast ends early', () => {
+    // Source: NHBC Standards 2023 §3.2.5 — a forecast at or below 0 °C in the period; the part not forecast is reported beside it (Hodboard rule)
+    const day = dayWith('bricklaying', (h) => (h === 50 ? { tempC: -1 } : {}), defaultRuleSettings, 72);
+    expect(find(day, 'cold.mortar.frost-protection')?.verdict).toBe('caution');
+    expect(find(day, 'forecast.reach.frost-protection')?.observed).toBe(64);
   });
 
   it.each([
@@ -128,6 +176,13 @@ describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
     const r = find(dayWith('bricklaying', () => ({ tempC: fToC(f) }), us), 'cold.mortar.us-protection');
     if (words === 'none') expect(r).toBeUndefined();
     else expect(r?.message).toMatch(new RegExp(words));
+  });
+
+  it('says when the forecast does not cover the 24 h that set the protection', () => {
+    // Source: TMS 602 protection by mean daily temperature (secondary copy); a 20 h forecast from midnight covers 12 h of the 24 h from 08:00 (Hodboard rule)
+    const r = find(dayWith('bricklaying', () => ({}), us, 20), 'forecast.reach.us-protection');
+    expect(r).toMatchObject({ verdict: 'caution', threshold: 24, observed: 12, uncovered: [{ from: '2026-03-02T20:00:00.000Z', to: '2026-03-03T08:00:00.000Z' }] });
+    expect(find(dayWith('bricklaying', () => ({}), us), 'forecast.reach.us-protection')).toBeUndefined();
   });
 
   it.each([

@@ -1,5 +1,8 @@
 import type { MortarKind } from './activities.js';
-import { coldestAhead, fmt, HOUR, indexAtOrAfter, tempAt, tempReason, timeAt, windowExtreme, type ForecastHour, type HourContext, type RuleReason } from './forecast.js';
+import {
+  coldestAhead, fmt, HOUR, indexAtOrAfter, lookAheadCover, lookAheadReason, tempAt, tempReason, timeAt, windowExtreme,
+  type ForecastHour, type HourContext, type RuleReason,
+} from './forecast.js';
 import { SOURCES } from './sources.js';
 import { cToF, msToMph } from './units.js';
 
@@ -50,15 +53,23 @@ export function checkFrostProtection(ctx: HourContext, out: RuleReason[]): void 
   if (s.frostProtectionDays <= 0) return;
   const until = ctx.windowStart + s.frostProtectionDays * 24 * HOUR;
   const frost = coldestAhead(ctx, until, s.frostAtOrBelowC);
-  if (!frost) return;
-  const horizonH = Math.max(0, Math.min(until, timeAt(ctx, frost.stop - 1) + HOUR) - ctx.windowStart) / HOUR;
-  out.push(tempReason(ctx, frost, {
-    ruleId: 'cold.mortar.frost-protection',
-    verdict: 'caution',
-    threshold: s.frostAtOrBelowC,
-    message: `Frost to ${fmt(frost.tempC)} °C forecast within ${fmt(horizonH, 0)} h of laying: protect the work with insulated covers, polythene with an air gap, for up to ${s.frostProtectionDays} days. ${DEFER}`,
-    source: SOURCES.nhbcFrost,
-  }));
+  if (frost) {
+    const horizonH = Math.max(0, Math.min(until, timeAt(ctx, frost.stop - 1) + HOUR) - ctx.windowStart) / HOUR;
+    out.push(tempReason(ctx, frost, {
+      ruleId: 'cold.mortar.frost-protection',
+      verdict: 'caution',
+      threshold: s.frostAtOrBelowC,
+      message: `Frost to ${fmt(frost.tempC)} °C forecast within ${fmt(horizonH, 0)} h of laying: protect the work with insulated covers, polythene with an air gap, for up to ${s.frostProtectionDays} days. ${DEFER}`,
+      source: SOURCES.nhbcFrost,
+    }));
+  }
+  const cover = lookAheadCover(ctx, until);
+  if (cover) {
+    out.push(lookAheadReason(
+      ctx, cover, 'forecast.reach.frost-protection', `frost-protection period (${s.frostProtectionDays} days from the start of work)`,
+      'Frost then is not ruled out: check the forecast again before then and keep frost protection for the new work to hand.', DEFER, SOURCES.forecastReach,
+    ));
+  }
 }
 
 export function checkUkMortarHeat(ctx: HourContext, out: RuleReason[]): void {
@@ -127,6 +138,13 @@ export function checkUsMortarCold(ctx: HourContext, out: RuleReason[]): void {
     const t = tempAt(f, i);
     if (t > hi) hi = t;
     if (t < lo) lo = t;
+  }
+  const cover = lookAheadCover(ctx, until);
+  if (cover) {
+    out.push(lookAheadReason(
+      ctx, cover, 'forecast.reach.us-protection', 'day that sets the protection (24 h from the start of work)',
+      'The mean daily temperature is worked out from the hours forecast only: check the forecast again and be ready to protect the new work.', DEFER, SOURCES.forecastReach,
+    ));
   }
   if (lo === Infinity) return;
   const mean = (hi + lo) / 2;

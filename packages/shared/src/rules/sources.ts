@@ -24,6 +24,7 @@ export const SOURCES = {
   rainHeavy: 'Met Office: heavy rain above 4 mm/h (from memory); stop rule common practice, no source',
   usableHours: 'Common practice, no source: a day with fewer usable hours than this is not worth starting',
   forecast: 'Hodboard: every working hour needs a forecast hour',
+  forecastReach: 'Hodboard: a look-ahead rule is checked on the hours forecast only, and says which part of its period the forecast does not reach',
 } as const;
 
 export type SourceKey = keyof typeof SOURCES;
