@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { idSchema, isoDateSchema, optionalText } from './common.js';
 import { holdReasons, type HoldReason } from '../terms/weather.js';
+import type { ReasonUnit } from '../rules/forecast.js';
 
 export const holdReasonSchema = z.enum(holdReasons);
 
@@ -89,13 +90,31 @@ export interface ReplanPreviewDto {
   warnings: string[];
 }
 
+/** One rule's finding on a job-day, with the figures it was judged on. */
+export interface DayWeatherReasonDto {
+  activity: string;
+  ruleId: string;
+  verdict: 'go' | 'caution' | 'stop';
+  message: string;
+  source: string;
+  /** Start of the forecast hour the observed value comes from; null for whole-day figures. */
+  at: string | null;
+  /** The limit the rule compares against, in `unit`. */
+  threshold: number;
+  unit: ReasonUnit;
+  /** The worst forecast value the rule saw (highest wind or rain, lowest temperature, fewest usable hours). */
+  observed: number;
+  /** Wind reasons: the Beaufort force of the forecast mean wind in the `at` hour. */
+  beaufort: { force: number; name: string } | null;
+}
+
 export interface DayWeatherDto {
   assignmentId: string;
   jobId: string;
   date: string;
   verdict: 'go' | 'caution' | 'stop';
   /** Short reasons for the board's panel; the job page has the full assessment. */
-  reasons: Array<{ activity: string; ruleId: string; verdict: 'go' | 'caution' | 'stop'; message: string; source: string; at: string | null }>;
+  reasons: DayWeatherReasonDto[];
   advice: string[];
   forecastFetchedAt: string | null;
   isStale: boolean;

@@ -109,7 +109,10 @@ export class WeatherService {
           date,
           verdict: assessment.verdict,
           reasons: assessment.activities.flatMap((a) =>
-            a.reasons.map((r) => ({ activity: a.activity, ruleId: r.ruleId, verdict: r.verdict, message: r.message, source: r.source, at: r.at })),
+            a.reasons.map((r) => ({
+              activity: a.activity, ruleId: r.ruleId, verdict: r.verdict, message: r.message, source: r.source, at: r.at,
+              threshold: r.threshold, unit: r.unit, observed: r.observed, beaufort: r.beaufort ?? null,
+            })),
           ),
           advice: [...new Set(assessment.activities.flatMap((a) => [...a.advice]))],
           forecastFetchedAt: forecast.fetchedAt?.toISOString() ?? null,

@@ -1,0 +1,82 @@
+import request from 'supertest';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import type { BoardDto, ForecastHour } from '@hodboard/shared';
+import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
+import type { ForecastProvider } from '../src/services/weather/forecast-provider.js';
+import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+
+const LAT = 53.8;
+const LON = -1.55;
+
+/** The scenario files the local fake serves, in process. */
+class ScenarioProvider implements ForecastProvider {
+  scenario: ScenarioName = 'calm-week';
+  constructor(private readonly now: { value: Date }) {}
+  async hourly(lat: number, lon: number, days: number): Promise<ForecastHour[]> {
+    return scenarioHours(this.scenario, lat, lon, this.now.value.getTime() - 86_400_000, (days + 1) * 24);
+  }
+}
+
+let h: Harness;
+let provider: ScenarioProvider;
+let owner: SignedIn;
+let ids: Awaited<ReturnType<typeof populateFirm>>;
+const NOW = new Date('2027-03-24T06:00:00Z');
+
+// Wednesday 24 March 2027; the chimney job runs Thu 25 March and, after Good Friday and Easter Monday, Tue 30 March.
+beforeEach(async () => {
+  const now = { value: NOW };
+  provider = new ScenarioProvider(now);
+  h = await createHarness({ forecastProvider: provider, geocoder: { locate: async () => ({ lat: LAT, lon: LON }) }, clock: () => now.value });
+  await truncateAll(h.dataSource);
+  owner = await signUpFirm(h, 'Heather Lane Masonry', 'owner@heather.example');
+  ids = await populateFirm(h, owner);
+  await request(h.app).post(`/api/access-bookings/${ids.bookingId}/state`).set(owner.auth).send({ state: 'cancelled', version: 1 }).expect(200);
+  const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+  await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth)
+    .send({ ...job.body, workTypes: ['chimney'], accessNeeds: ['scaffold'], estimatedWorkingDays: 2, version: job.body.version }).expect(200);
+  await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
+    .send({ crewId: ids.crewId, startDate: '2027-03-25', workingDays: 2, version: 1 }).expect(200);
+});
+afterAll(async () => {
+  await h.dataSource.destroy();
+});
+
+const refresh = () => request(h.app).post('/api/weather/refresh').set(owner.auth).send({}).expect(200);
+const board = async () => (await request(h.app).get('/api/board').query({ from: '2027-03-22', to: '2027-04-09' }).set(owner.auth).expect(200)).body as BoardDto;
+/** The hour the scenario gives the site, worked out apart from the API. */
+const scenarioHour = (scenario: ScenarioName, at: string) =>
+  scenarioHours(scenario, LAT, LON, NOW.getTime() - 86_400_000, 10 * 24).find((hour) => hour.time === at);
+
+describe('the reasons behind a verdict', () => {
+  it('carries each wind rule\'s limit, the forecast gust it was judged on, its hour and the Beaufort force', async () => {
+    provider.scenario = 'gale';
+    await refresh();
+    const day = (await board()).weather.find((d) => d.date === '2027-03-25')!;
+    const gusts = day.reasons.filter((r) => r.ruleId.startsWith('wind.') && r.ruleId.endsWith('.gust') && r.verdict === 'stop');
+    expect(gusts.length).toBeGreaterThan(0);
+    for (const reason of gusts) {
+      expect(reason.unit).toBe('m/s');
+      expect(reason.threshold).toBeGreaterThan(0);
+      expect(reason.observed).toBeGreaterThanOrEqual(reason.threshold);
+      // The gale scenario blows 28 m/s gusts from 09:00 UTC (gale.json), the first such hour of the working day.
+      expect(reason).toMatchObject({ observed: 28, at: '2027-03-25T09:00:00.000Z' });
+      expect(scenarioHour('gale', reason.at!)?.windGustMs).toBe(reason.observed);
+      expect(reason.beaufort).toEqual({ force: expect.any(Number), name: expect.any(String) });
+      expect(reason.message).toContain(`force ${reason.beaufort!.force}`);
+    }
+  });
+
+  it('carries the 3 °C limit and the coldest forecast hour of the bricklaying stop in a hard frost', async () => {
+    provider.scenario = 'hard-frost';
+    await refresh();
+    const day = (await board()).weather.find((d) => d.date === '2027-03-25')!;
+    const cold = day.reasons.find((r) => r.activity === 'bricklaying' && r.ruleId === 'cold.mortar.cement')!;
+    // Source: NBS clause F10/185 and NHBC Standards 2023 §3.2.5: no laying at or below 3 °C and falling.
+    expect(cold).toMatchObject({ verdict: 'stop', threshold: 3, unit: '°C', beaufort: null });
+    expect(cold.observed).toBeLessThanOrEqual(3);
+    expect(cold.at!.slice(0, 10)).toBe('2027-03-25');
+    expect(scenarioHour('hard-frost', cold.at!)?.tempC).toBe(cold.observed);
+    expect(day.reasons.find((r) => r.ruleId === 'day.usable-hours')).toMatchObject({ unit: 'h', at: null, observed: 0 });
+  });
+});
