@@ -109,6 +109,24 @@ describe('a confirmed booking', () => {
     expect(after.pendingChange).toMatchObject({ status: 'countered', supplierNote: 'Crew free Monday only' });
   });
 
+  it('sets an answered counter-proposal aside when a newer request goes out, so it does not come back once that is accepted', async () => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    const first = linkToken();
+    await request(h.app).post(`/api/public/supplier-links/${first}`).send({ answer: 'propose', erectDate: '2027-03-08', strikeDate: '2027-03-16', note: 'Crew free Monday only' }).expect(200);
+    // Moved again: Wed 17 – Fri 19 March needs the scaffold up Tue 16, down Mon 22.
+    await moveJob('2027-03-17');
+    const asked = await bookingNow(booking.id);
+    expect(asked.pendingChange).toMatchObject({ status: 'pending', oldErect: '2027-03-08', oldStrike: '2027-03-16', newErect: '2027-03-16', newStrike: '2027-03-22' });
+    const second = linkToken();
+    expect(second).not.toBe(first);
+    await request(h.app).post(`/api/public/supplier-links/${second}`).send({ answer: 'accept' }).expect(200);
+    expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-03-16', confirmedStrike: '2027-03-22', pendingChange: null });
+    const rows = (await h.dataSource.query(`SELECT status, supplier_note FROM access_change_request WHERE booking_id = $1 ORDER BY created_at`, [booking.id])) as unknown[];
+    expect(rows).toEqual([{ status: 'superseded', supplier_note: 'Crew free Monday only' }, { status: 'accepted', supplier_note: null }]);
+    expect((await request(h.app).get(`/api/public/supplier-links/${first}`).expect(401)).body.detail).toMatch(/replaced by a newer request/);
+  });
+
   it('refuses the link once it has expired', async () => {
     await confirmed();
     await moveJob('2027-03-10');

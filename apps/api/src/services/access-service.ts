@@ -350,7 +350,8 @@ export class AccessService {
       }
       const pending = await manager.findOneBy(AccessChangeRequest, { bookingId: booking.id, status: 'pending' });
       if (pending && pending.newErect === wanted.erect && pending.newStrike === wanted.strike) continue;
-      await this.supersedePending(manager, booking.id);
+      // An earlier counter-proposal is settled by this newer request, so it must not show again once this one is answered.
+      await this.closeOpenRequests(manager, booking.id, 'superseded');
       const token = newOpaqueToken();
       const request = await manager.save(scope.create(AccessChangeRequest, {
         bookingId: booking.id, status: 'pending', oldErect: booking.confirmedErect, oldStrike: booking.confirmedStrike,
