@@ -36,12 +36,17 @@ describe('WeatherReasonList', () => {
     ]);
   });
 
-  it('reads the usable-hours and missing-forecast rules as hours needed and hours missing, with no hour of day', () => {
+  it('reads the hour-counting rules as hours needed, missing or covered, with no hour of day', () => {
     const text = figures(day([
       reason({ ruleId: 'day.usable-hours', threshold: 4, unit: 'h', observed: 2.5, at: null }),
       reason({ ruleId: 'forecast.missing', verdict: 'caution', threshold: 0, unit: 'h', observed: 3, at: null }),
+      reason({ ruleId: 'forecast.reach.frost-protection', verdict: 'caution', threshold: 168, unit: 'h', observed: 121.5, at: null }),
     ]));
-    expect(text).toEqual(['Needs 4 h usable · forecast leaves 2.5 h', 'No forecast for 3 h of the working window']);
+    expect(text).toEqual([
+      'Needs 4 h usable · forecast leaves 2.5 h',
+      'No forecast for 3 h of the working window',
+      'Forecast covers 121.5 h of the 168 h looked ahead',
+    ]);
   });
 
   it('keeps the rule, the message and the source beside the figures', () => {
