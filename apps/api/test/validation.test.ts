@@ -46,17 +46,43 @@ describe('bad input', () => {
     expect(await countRows(h.dataSource)).toEqual(before);
   });
 
+  // Under the 100 kB JSON body limit, so the field's own length limit is what answers.
+  const oversized = 'z'.repeat(100_000);
+  const oversizedCases: Array<[string, 'post' | 'put', () => string, () => object, string]> = [
+    ['client notes', 'post', () => '/api/clients', () => ({ name: 'Long Notes Farm', notes: oversized }), 'notes'],
+    ['site hazards', 'post', () => '/api/sites', () => ({ clientId: ids.clientId, addressLine1: '1 Road', town: 'Lowmoor', postcode: 'LM1 1AA', hazards: oversized }), 'hazards'],
+    ['crew name', 'post', () => '/api/crews', () => ({ name: oversized, colour: '#445566' }), 'name'],
+    ['job description', 'post', () => '/api/jobs', () => ({ clientId: ids.clientId, siteId: ids.siteId, title: 'J', workTypes: ['repairs'], estimatedWorkingDays: 1, description: oversized }), 'description'],
+    ['job title on an update', 'put', () => `/api/jobs/${ids.jobId}`, () => ({ clientId: ids.clientId, siteId: ids.siteId, title: oversized, workTypes: ['repairs'], estimatedWorkingDays: 1 }), 'title'],
+    ['firm name', 'put', () => '/api/firm', () => ({ name: oversized }), 'name'],
+    ['an invited person\'s name', 'post', () => '/api/people/invite', () => ({ email: 'long@damson.example', name: oversized, role: 'operative' }), 'name'],
+  ];
+
+  it.each(oversizedCases)('rejects a 100,000-character %s with 400 naming the field and writes nothing', async (_name, method, url, body, field) => {
+    const before = await countRows(h.dataSource);
+    const payload = body();
+    expect(Buffer.byteLength(JSON.stringify(payload))).toBeLessThan(100 * 1024);
+    const res = await request(h.app)[method](url()).set(owner.auth).send(payload);
+    expect(res.status).toBe(400);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toMatchObject({ type: '/problems/validation-failed', code: 'validation-failed', status: 400 });
+    expect(res.body.errors).toContainEqual({ path: field, message: expect.stringMatching(/^At most \d+ characters$/) });
+    expect(await countRows(h.dataSource)).toEqual(before);
+    expect(h.mailer.outbox.filter((mail) => mail.to === 'long@damson.example')).toHaveLength(0);
+  });
+
   it('rejects a body that is not JSON with 400', async () => {
     const res = await request(h.app).post('/api/clients').set(owner.auth).set('Content-Type', 'application/json').send('{"name": ');
     expect(res.status).toBe(400);
     expect(res.body.code).toBe('validation-failed');
   });
 
-  it('rejects a body over the size limit with 413 and writes nothing', async () => {
+  it('rejects a body over the size limit with 413 problem JSON and writes nothing', async () => {
     const before = await countRows(h.dataSource);
     const res = await request(h.app).post('/api/clients').set(owner.auth).send({ name: 'Big', notes: 'y'.repeat(200_000) });
     expect(res.status).toBe(413);
-    expect(res.body.code).toBe('payload-too-large');
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toEqual({ type: '/problems/payload-too-large', title: expect.any(String), status: 413, detail: expect.any(String), code: 'payload-too-large' });
     expect(await countRows(h.dataSource)).toEqual(before);
   });
 
