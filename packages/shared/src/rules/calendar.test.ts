@@ -33,7 +33,7 @@ describe('isWorkingDay', () => {
 
   it('treats every official bank holiday 2025–2027 as a day off', () => {
     for (const e of govUkBankHolidays['england-and-wales'].events) {
-      // Source: gov.uk bank-holidays.json (committed snapshot)
+      // Source: gov.uk bank-holidays.json, england-and-wales (hand-typed secondary copy: see the fixture header)
       expect(isWorkingDay(e.date, eng), e.date).toBe(false);
     }
   });

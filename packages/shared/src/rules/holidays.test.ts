@@ -6,9 +6,9 @@ const official = govUkBankHolidays['england-and-wales'].events;
 
 describe('publicHolidays', () => {
   it.each([
-    [2025], // Source: gov.uk bank-holidays.json, england-and-wales (committed snapshot)
-    [2026], // Source: gov.uk bank-holidays.json, england-and-wales (committed snapshot)
-    [2027], // Source: gov.uk bank-holidays.json, england-and-wales (committed snapshot)
+    [2025], // Source: gov.uk bank-holidays.json, england-and-wales (hand-typed secondary copy, checked against two copies of the live file: see the fixture header)
+    [2026], // Source: gov.uk bank-holidays.json, england-and-wales (hand-typed secondary copy, checked against two copies of the live file: see the fixture header)
+    [2027], // Source: gov.uk bank-holidays.json, england-and-wales (hand-typed secondary copy, checked against two copies of the live file: see the fixture header)
   ])('matches the official England and Wales dates for %d', (year) => {
     const expected = official.filter((e) => e.date.startsWith(String(year))).map((e) => e.date);
     expect(publicHolidays(year, englandAndWales).map((h) => h.date)).toEqual(expected);
