@@ -1,9 +1,11 @@
 import request from 'supertest';
 import sharp from 'sharp';
-import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type { AccessBookingDto, BoardDto, PhotoDto, ScaffoldInspectionDto } from '@hodboard/shared';
 import { ForecastHourRow, ScaffoldInspection } from '../src/entities/index.js';
+import { createMailCatcher, type CaughtMail, type MailCatcher } from '../src/fakes/mail-catcher.js';
 import { scenarioHours } from '../src/fakes/weather-scenarios.js';
+import { SmtpMailer } from '../src/services/mailer.js';
 import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 import { binaryParser, pdfText } from './quotes-helpers.js';
 
@@ -72,24 +74,61 @@ describe('a confirmed booking', () => {
     return res.body as AccessBookingDto;
   }
 
-  it('raises exactly one change request and one e-mail when the job moves, and the link accepts once', async () => {
-    const booking = await confirmed();
-    await moveJob('2027-03-10');
-    const mails = h.mailer.outbox.filter((m) => m.to === 'hire@loftypoles.example');
-    expect(mails).toHaveLength(1);
-    expect(mails[0]!.text).toContain('up 2027-02-26, down 2027-03-04');
-    expect(mails[0]!.text).toContain('up 2027-03-09, down 2027-03-15');
-    const pending = await bookingNow(booking.id);
-    expect(pending.pendingChange).toMatchObject({ status: 'pending', newErect: '2027-03-09', newStrike: '2027-03-15' });
-    expect(pending.confirmedErect).toBe('2027-02-26');
+  describe('mailed through the local SMTP catcher', () => {
+    let catcher: MailCatcher;
+    beforeAll(async () => {
+      catcher = createMailCatcher({ smtpPort: 0, httpPort: 0 });
+      await catcher.start();
+    });
+    afterAll(() => catcher.stop());
+    beforeEach(() => {
+      catcher.clear();
+      // The same app over the same database, but sending its mail over SMTP as it does in development.
+      const now = h.now.value;
+      return createHarness({ mailer: new SmtpMailer({ host: '127.0.0.1', port: catcher.ports().smtp }, 'Hodboard <office@hodboard.example>') }).then((smtp) => {
+        h = smtp;
+        h.now.value = now;
+      });
+    });
+    const caughtFor = async (to: string) => {
+      const res = await fetch(`http://127.0.0.1:${catcher.ports().http}/messages?to=${encodeURIComponent(to)}`);
+      expect(res.status).toBe(200);
+      return (await res.json()) as CaughtMail[];
+    };
+    const requestCount = async (bookingId: string) =>
+      Number(((await h.dataSource.query(`SELECT COUNT(*)::int AS n FROM access_change_request WHERE booking_id = $1`, [bookingId])) as Array<{ n: number }>)[0]!.n);
 
-    const token = linkToken();
-    const seen = await request(h.app).get(`/api/public/supplier-links/${token}`).expect(200);
-    expect(seen.body).toMatchObject({ firmName: 'Gorse Hill Builders', supplierName: 'Lofty Poles Scaffolding', newErect: '2027-03-09', status: 'pending' });
-    await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'accept' }).expect(200);
-    expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15', pendingChange: null });
-    const again = await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'accept' }).expect(401);
-    expect(again.body.code).toBe('token-invalid');
+    it('raises exactly one change request and one e-mail when the job moves, and the mailed link accepts once', async () => {
+      const booking = await confirmed();
+      await moveJob('2027-03-10');
+      const mails = await caughtFor('hire@loftypoles.example');
+      expect(mails).toHaveLength(1);
+      expect(await requestCount(booking.id)).toBe(1);
+      const [mail] = mails;
+      expect(mail!.text).toContain('up 2027-02-26, down 2027-03-04');
+      expect(mail!.text).toContain('up 2027-03-09, down 2027-03-15');
+      const pending = await bookingNow(booking.id);
+      expect(pending.pendingChange).toMatchObject({ status: 'pending', newErect: '2027-03-09', newStrike: '2027-03-15' });
+      expect(pending.confirmedErect).toBe('2027-02-26');
+
+      // The link as the supplier's mail client shows it, the same in the text and the HTML part.
+      const href = /https?:\/\/\S+/.exec(mail!.text)?.[0];
+      expect(href).toBeDefined();
+      expect(mail!.html).toContain(`href="${href!.replace(/&/g, '&amp;')}"`);
+      const link = new URL(href!);
+      expect(`${link.origin}${link.pathname}`).toBe('http://localhost:3000/supplier-response');
+      // The answer page sends the token from its address to the public API, as followed here.
+      const token = link.searchParams.get('token')!;
+      const seen = await request(h.app).get(`/api/public/supplier-links/${encodeURIComponent(token)}`).expect(200);
+      expect(seen.body).toMatchObject({ firmName: 'Gorse Hill Builders', supplierName: 'Lofty Poles Scaffolding', newErect: '2027-03-09', status: 'pending' });
+      await request(h.app).post(`/api/public/supplier-links/${encodeURIComponent(token)}`).send({ answer: 'accept' }).expect(200);
+      expect(await bookingNow(booking.id)).toMatchObject({ confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15', pendingChange: null });
+      const again = await request(h.app).post(`/api/public/supplier-links/${encodeURIComponent(token)}`).send({ answer: 'accept' }).expect(401);
+      expect(again.body.code).toBe('token-invalid');
+      // Answering mails nobody and raises no further request.
+      expect(await caughtFor('hire@loftypoles.example')).toHaveLength(1);
+      expect(await requestCount(booking.id)).toBe(1);
+    });
   });
 
   it('does not mail again when the job moves back to dates already asked for', async () => {
