@@ -147,6 +147,86 @@ describe('invitations and password resets', () => {
   });
 });
 
+/** The same token with one character changed, as a hand-edited or truncated-and-retyped link would be. */
+function tamper(token: string): string {
+  const i = Math.floor(token.length / 2);
+  return `${token.slice(0, i)}${token[i] === 'A' ? 'B' : 'A'}${token.slice(i + 1)}`;
+}
+
+describe('refresh, invite and reset tokens', () => {
+  it('refuses a refresh token after it has expired and clears the cookie', async () => {
+    await signUpFirm(h, 'Firm', 'owner@example.org');
+    const signedIn = await request(h.app).post('/api/auth/sign-in').send({ email: 'owner@example.org', password: PASSWORD }).expect(200);
+    const cookie = refreshCookie(signedIn);
+    // The default refresh lifetime is 30 days.
+    h.now.value = new Date(h.now.value.getTime() + 31 * 24 * 3_600_000);
+    const res = await request(h.app).post('/api/auth/refresh').set('Cookie', cookie).expect(401);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body.code).toBe('token-expired');
+    expect(([] as string[]).concat(res.headers['set-cookie'] ?? []).join(';')).toMatch(/hb_refresh=;.*Expires=Thu, 01 Jan 1970/);
+  });
+
+  it('refuses a tampered refresh token and leaves the real one working', async () => {
+    await signUpFirm(h, 'Firm', 'owner@example.org');
+    const signedIn = await request(h.app).post('/api/auth/sign-in').send({ email: 'owner@example.org', password: PASSWORD }).expect(200);
+    const cookie = refreshCookie(signedIn);
+    const value = decodeURIComponent(cookie.slice('hb_refresh='.length));
+    const res = await request(h.app).post('/api/auth/refresh').set('Cookie', `hb_refresh=${encodeURIComponent(tamper(value))}`).expect(401);
+    expect(res.body).toMatchObject({ code: 'unauthenticated', status: 401 });
+    await request(h.app).post('/api/auth/refresh').set('Cookie', `hb_refresh=${encodeURIComponent(`${value}x`)}`).expect(401);
+    await request(h.app).post('/api/auth/refresh').set('Cookie', cookie).expect(200);
+  });
+
+  it('refuses an invitation after it has expired and writes nothing', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/people/invite').set(owner.auth).send({ email: 'late@example.org', name: 'Late Person', role: 'operative' }).expect(201);
+    const token = inviteTokenFrom(h.mailer, 'late@example.org');
+    // Invitations last seven days.
+    h.now.value = new Date(h.now.value.getTime() + 8 * 24 * 3_600_000);
+    const before = await countRows(h.dataSource);
+    const res = await request(h.app).post('/api/auth/accept-invite').send({ token, name: 'Late Person', password: PASSWORD }).expect(401);
+    expect(res.body).toMatchObject({ code: 'token-expired', status: 401, type: '/problems/token-expired' });
+    expect(await countRows(h.dataSource)).toEqual(before);
+    await request(h.app).post('/api/auth/sign-in').send({ email: 'late@example.org', password: PASSWORD }).expect(401);
+  });
+
+  it('refuses a tampered invitation and still accepts the real one once', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/people/invite').set(owner.auth).send({ email: 'new@example.org', name: 'New Person', role: 'office' }).expect(201);
+    const token = inviteTokenFrom(h.mailer, 'new@example.org');
+    const before = await countRows(h.dataSource);
+    const res = await request(h.app).post('/api/auth/accept-invite').send({ token: tamper(token), name: 'Intruder', password: PASSWORD }).expect(401);
+    expect(res.body.code).toBe('token-invalid');
+    expect(await countRows(h.dataSource)).toEqual(before);
+    const accepted = await request(h.app).post('/api/auth/accept-invite').send({ token, name: 'New Person', password: PASSWORD }).expect(200);
+    expect(accepted.body.role).toBe('office');
+    await request(h.app).post('/api/auth/accept-invite').send({ token, name: 'New Person', password: PASSWORD }).expect(401);
+  });
+
+  it('refuses a tampered reset link and keeps the password until the real one is used', async () => {
+    await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/auth/forgot-password').send({ email: 'owner@example.org' }).expect(202);
+    const token = inviteTokenFrom(h.mailer, 'owner@example.org', 'reset-password');
+    const res = await request(h.app).post('/api/auth/reset-password').send({ token: tamper(token), password: 'Hijacked-pass-01' }).expect(401);
+    expect(res.body.code).toBe('token-invalid');
+    await request(h.app).post('/api/auth/sign-in').send({ email: 'owner@example.org', password: 'Hijacked-pass-01' }).expect(401);
+    await signIn(h, 'owner@example.org', PASSWORD);
+    await request(h.app).post('/api/auth/reset-password').send({ token, password: 'Brand-new-pass-7' }).expect(204);
+    await signIn(h, 'owner@example.org', 'Brand-new-pass-7');
+  });
+
+  it('does not take one kind of link for another', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    await request(h.app).post('/api/people/invite').set(owner.auth).send({ email: 'new@example.org', name: 'New Person', role: 'operative' }).expect(201);
+    const invite = inviteTokenFrom(h.mailer, 'new@example.org');
+    await request(h.app).post('/api/auth/forgot-password').send({ email: 'owner@example.org' }).expect(202);
+    const reset = inviteTokenFrom(h.mailer, 'owner@example.org', 'reset-password');
+    expect((await request(h.app).post('/api/auth/reset-password').send({ token: invite, password: 'Brand-new-pass-7' }).expect(401)).body.code).toBe('token-invalid');
+    expect((await request(h.app).post('/api/auth/accept-invite').send({ token: reset, name: 'Owner', password: 'Brand-new-pass-7' }).expect(401)).body.code).toBe('token-invalid');
+    await request(h.app).post('/api/auth/refresh').set('Cookie', `hb_refresh=${encodeURIComponent(reset)}`).expect(401);
+  });
+});
+
 function expectRateLimited(res: request.Response): void {
   expect(res.status).toBe(429);
   expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
