@@ -148,6 +148,69 @@ describe('stand-downs and re-plans', () => {
   });
 });
 
+// The job moved to Monday 24 to Friday 28 May 2027 and stood down on its third day, Wednesday 26 May.
+// Source: gov.uk bank holidays, England and Wales 2027: Spring bank holiday Monday 31 May.
+describe('a stand-down in the middle of a job', () => {
+  const week = ['2027-05-24', '2027-05-25', '2027-05-26', '2027-05-27', '2027-05-28'];
+  beforeEach(async () => {
+    await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth).send({ crewId: ids.crewId, startDate: week[0], workingDays: 5, version: 2 }).expect(200);
+  });
+
+  async function placeJob(title: string, crewId: string, startDate: string, days: number): Promise<string> {
+    const res = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title, workTypes: ['garden-wall'], estimatedWorkingDays: days }).expect(201);
+    await request(h.app).post(`/api/jobs/${res.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: res.body.id, crewId, startDate, confirmDoubleBooking: true }).expect(201);
+    return res.body.id as string;
+  }
+  const newCrew = async (name: string) => (await request(h.app).post('/api/crews').set(owner.auth).send({ name, colour: '#335577' }).expect(201)).body.id as string;
+  const standDown = async (dates = ['2027-05-26']) =>
+    (await request(h.app).post('/api/weather-holds').set(owner.auth).send({ jobId: ids.jobId, dates, reason: 'rain' }).expect(201)).body as WeatherHoldDto;
+  const replan = (step: 'preview' | 'commit', hold: WeatherHoldDto, body: object) =>
+    request(h.app).post(`/api/weather-holds/${hold.id}/${step}`).set(owner.auth).send({ version: hold.version, ...body });
+  const placed = async (jobId: string) => {
+    const view = (await request(h.app).get('/api/board').query({ from: '2027-05-17', to: '2027-06-18' }).set(owner.auth).expect(200)).body as BoardDto;
+    return view.assignments.find((a) => a.jobId === jobId)!;
+  };
+
+  it('keeps the start and the days worked, and adds the lost day after the bank holiday', async () => {
+    const hold = await standDown();
+    const preview = (await replan('preview', hold, { mode: 'push' }).expect(200)).body as ReplanPreviewDto;
+    expect(preview.moves.map((m) => [m.jobId, m.toDays])).toEqual([[ids.jobId, [...week, '2027-06-01']]]);
+    const committed = (await replan('commit', hold, { mode: 'push' }).expect(200)).body as ReplanPreviewDto;
+    expect(committed.moves).toEqual(preview.moves);
+    expect(await placed(ids.jobId)).toMatchObject({ crewId: ids.crewId, startDate: '2027-05-24', workingDays: 6, days: [...week, '2027-06-01'] });
+  });
+
+  it("ripples the crew's next job past the new end and leaves the one after a gap", async () => {
+    const next = await placeJob('Coping stones', ids.crewId, '2027-06-01', 2);
+    const afterGap = await placeJob('Gate piers', ids.crewId, '2027-06-04', 1);
+    const hold = await standDown();
+    const preview = (await replan('preview', hold, { mode: 'push-and-ripple' }).expect(200)).body as ReplanPreviewDto;
+    expect(preview.moves.map((m) => [m.jobId, m.toDays])).toEqual([
+      [ids.jobId, [...week, '2027-06-01']],
+      [next, ['2027-06-02', '2027-06-03']],
+    ]);
+    await replan('commit', hold, { mode: 'push-and-ripple' }).expect(200);
+    expect((await placed(next)).days).toEqual(['2027-06-02', '2027-06-03']);
+    expect((await placed(afterGap)).days).toEqual(['2027-06-04']);
+  });
+
+  it('gives another crew only the days left and keeps the days worked in the history', async () => {
+    const ridge = await newCrew('Ridge crew');
+    const hold = await standDown();
+    const early = await replan('preview', hold, { mode: 'move-crew', crewId: ridge, startDate: '2027-05-25' }).expect(400);
+    expect(early.body.errors[0].path).toBe('startDate');
+    const preview = (await replan('preview', hold, { mode: 'move-crew', crewId: ridge, startDate: '2027-05-26' }).expect(200)).body as ReplanPreviewDto;
+    expect(preview.workedDays).toEqual(['2027-05-24', '2027-05-25']);
+    expect(preview.moves).toEqual([expect.objectContaining({ jobId: ids.jobId, fromCrewId: ids.crewId, toCrewId: ridge, fromDays: week, toDays: ['2027-05-26', '2027-05-27', '2027-05-28'] })]);
+    await replan('commit', hold, { mode: 'move-crew', crewId: ridge, startDate: '2027-05-26' }).expect(200);
+    expect(await placed(ids.jobId)).toMatchObject({ crewId: ridge, workingDays: 3, days: ['2027-05-26', '2027-05-27', '2027-05-28'] });
+    const history = (await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200)).body as Array<{ action: string; before: { crewId?: string; days?: string[] } | null }>;
+    expect(history.find((e) => e.action === 'replanned' && e.before?.days)?.before).toEqual({ crewId: ids.crewId, days: week });
+  });
+});
+
 describe('the hosted-service adapters against the local fake', () => {
   const fake = createWeatherFake({ port: 0, scenario: 'showers' });
   beforeEach(async () => {

@@ -18,6 +18,7 @@ export interface PlannedMove {
   fromDays: readonly string[];
   toDays: string[];
   startDate: string;
+  /** The span's length on the board from `startDate`: `toDays` is `spanFor(startDate, workingDays)`. */
   workingDays: number;
 }
 
@@ -37,53 +38,84 @@ export interface ReplanRequest {
 export interface ReplanPlan {
   lostWorkingDays: number;
   moves: PlannedMove[];
+  /**
+   * For move-crew: the job's days before the first day stood down. The first crew worked them; they leave the
+   * board with the move and stay in the job's history.
+   */
+  workedDays: string[];
 }
 
 /**
- * Works out a re-plan after a stand-down. "push" moves the job later by the working days lost; "ripple" then
- * moves each of the same crew's later jobs just far enough not to overlap the one before, on that crew's
- * calendar and never before a job's earliest start; "move-crew" hands the job to another crew from the first
- * day stood down. Pure: the API previews and commits with the same function.
+ * Works out a re-plan after a stand-down. A job is one contiguous span of working days, so:
+ * - "push", when the days stood down start on the job's first day, moves the start past that first run of held days;
+ *   otherwise the start stays (days already worked never move). Either way the span grows by the held days left inside
+ *   it, which stay on the board marked by the stand-down, so the job ends later by exactly the working days lost.
+ * - "push-and-ripple" then moves each of the same crew's later jobs just far enough not to overlap the one before, on
+ *   that crew's calendar and never before a job's earliest start.
+ * - "move-crew" gives another crew what is left of the job (its working days from the first day stood down) from the
+ *   day chosen.
+ * Pure: the API previews and commits with the same function.
  */
 export function planReplan(request: ReplanRequest): ReplanPlan {
   const { target } = request;
-  const ownDays = new Set(target.days);
-  const lost = [...new Set(request.heldDates)].filter((date) => ownDays.has(date)).length;
-  if (request.mode === 'none' || lost === 0) return { lostWorkingDays: lost, moves: [] };
+  const held = new Set(request.heldDates);
+  const heldOwn = target.days.filter((day) => held.has(day));
+  const lost = heldOwn.length;
+  const plan: ReplanPlan = { lostWorkingDays: lost, moves: [], workedDays: [] };
+  if (request.mode === 'none' || lost === 0) return plan;
+  const firstHeld = [...heldOwn].sort()[0]!;
 
   if (request.mode === 'move-crew') {
     const toCrewId = request.toCrewId ?? target.crewId;
     const calendar = request.calendarFor(toCrewId);
-    const firstHeld = [...request.heldDates].sort()[0]!;
-    const start = atOrAfterWorkingDay(request.startDate ?? firstHeld, calendar, target.earliestStart);
-    const toDays = spanFor(start, target.workingDays, calendar);
-    return { lostWorkingDays: lost, moves: [move(target, toCrewId, toDays)] };
+    plan.workedDays = target.days.filter((day) => day < firstHeld);
+    const remaining = target.workingDays - plan.workedDays.length;
+    // A job already begun keeps its start; only one not yet begun still waits for its earliest start.
+    const start = atOrAfterWorkingDay(request.startDate ?? firstHeld, calendar, plan.workedDays.length ? null : target.earliestStart);
+    plan.moves.push(move(target, toCrewId, spanFor(start, remaining, calendar), remaining));
+    return plan;
   }
 
   const calendar = request.calendarFor(target.crewId);
-  const pushedStart = atOrAfterWorkingDay(addWorkingDays(nextWorkingDay(target.startDate, calendar), lost, calendar), calendar, target.earliestStart);
-  const pushedDays = spanFor(pushedStart, target.workingDays, calendar);
-  const moves: PlannedMove[] = [move(target, target.crewId, pushedDays)];
+  let leading = 0;
+  while (leading < target.days.length && held.has(target.days[leading]!)) leading += 1;
+  const start = leading === 0
+    ? target.startDate
+    : atOrAfterWorkingDay(addWorkingDays(target.days[leading - 1]!, 1, calendar), calendar, target.earliestStart);
+  const workingDays = target.workingDays + lost - leading;
+  const pushedDays = spanFor(start, workingDays, calendar);
+  plan.moves.push(move(target, target.crewId, pushedDays, workingDays));
   if (request.mode === 'push-and-ripple') {
-    let lastBusy = pushedDays[pushedDays.length - 1]!;
-    const later = [...request.laterOnCrew]
-      .filter((other) => other.assignmentId !== target.assignmentId && other.crewId === target.crewId && other.startDate >= target.startDate)
-      .sort((a, b) => a.startDate.localeCompare(b.startDate) || a.assignmentId.localeCompare(b.assignmentId));
-    for (const other of later) {
-      if (other.days[0]! > lastBusy) break;
-      const start = atOrAfterWorkingDay(addWorkingDays(lastBusy, 1, calendar), calendar, other.earliestStart);
-      const days = spanFor(start, other.workingDays, calendar);
-      moves.push(move(other, other.crewId, days));
-      lastBusy = days[days.length - 1]!;
-    }
+    const later = request.laterOnCrew.filter(
+      (other) => other.assignmentId !== target.assignmentId && other.crewId === target.crewId && other.startDate >= target.startDate,
+    );
+    plan.moves.push(...ripple(pushedDays, later, calendar));
   }
-  return { lostWorkingDays: lost, moves };
+  return plan;
 }
 
-function move(span: PlacedSpan, toCrewId: string, toDays: string[]): PlannedMove {
+/** Moves each job, in start order, to the first working day after the one before it ends, while they overlap. */
+function ripple(after: readonly string[], candidates: readonly PlacedSpan[], calendar: WorkCalendar): PlannedMove[] {
+  const moves: PlannedMove[] = [];
+  let lastBusy = after[after.length - 1]!;
+  for (const other of [...candidates].sort(byStart)) {
+    if (other.days[0]! > lastBusy) break;
+    const start = atOrAfterWorkingDay(addWorkingDays(lastBusy, 1, calendar), calendar, other.earliestStart);
+    const days = spanFor(start, other.workingDays, calendar);
+    moves.push(move(other, other.crewId, days, other.workingDays));
+    lastBusy = days[days.length - 1]!;
+  }
+  return moves;
+}
+
+function byStart(a: PlacedSpan, b: PlacedSpan): number {
+  return a.startDate.localeCompare(b.startDate) || a.assignmentId.localeCompare(b.assignmentId);
+}
+
+function move(span: PlacedSpan, toCrewId: string, toDays: string[], workingDays: number): PlannedMove {
   return {
     assignmentId: span.assignmentId, jobId: span.jobId, fromCrewId: span.crewId, toCrewId,
-    fromDays: span.days, toDays, startDate: toDays[0]!, workingDays: span.workingDays,
+    fromDays: span.days, toDays, startDate: toDays[0]!, workingDays,
   };
 }
 

@@ -83,6 +83,8 @@ export interface ReplanPreviewDto {
   holdId: string;
   mode: ReplanValues['mode'];
   lostWorkingDays: number;
+  /** For move-crew: the job's days before the first day stood down, worked by its first crew; they stay in the job's history. */
+  workedDays: string[];
   moves: ReplanMoveDto[];
   accessChanges: ReplanAccessChangeDto[];
   /** Clients who will be e-mailed their new dates. */

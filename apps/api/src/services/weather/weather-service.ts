@@ -321,6 +321,10 @@ export class WeatherService {
       target: toSpan(target), heldDates: hold.dates, mode: input.mode, laterOnCrew: later.map(toSpan),
       calendarFor: (crewId) => calendars.forCrew(crewId), toCrewId: input.crewId, startDate: input.startDate,
     });
+    const firstHeld = target.days[plan.workedDays.length];
+    if (input.mode === 'move-crew' && input.startDate && plan.workedDays.length > 0 && firstHeld && input.startDate < firstHeld) {
+      throw errors.validation([{ path: 'startDate', message: `The days before ${firstHeld} were worked by the first crew; the new crew starts on or after it` }]);
+    }
     return { plan, spans: new Map([target, ...later].map((a) => [a.id, a])), jobs, calendars };
   }
 
@@ -354,7 +358,7 @@ export class WeatherService {
     }
     if (plan.lostWorkingDays === 0) warnings.push('None of the days stood down are working days of this job; nothing moves.');
     return {
-      holdId: hold.id, mode: input.mode, lostWorkingDays: plan.lostWorkingDays,
+      holdId: hold.id, mode: input.mode, lostWorkingDays: plan.lostWorkingDays, workedDays: plan.workedDays,
       moves: plan.moves.map((m) => {
         const job = jobs.find((j) => j.id === m.jobId)!;
         return {
