@@ -58,6 +58,21 @@ export const accessListQuerySchema = z.object({
   state: z.enum(accessStates).optional(),
 });
 
+/** The jobs of a booking being made, as `jobIds=a,b`, and the kind of access. */
+export const accessQuotedWeeksQuerySchema = z.object({
+  jobIds: z
+    .string()
+    .transform((value) => value.split(',').filter(Boolean))
+    .pipe(z.array(idSchema).min(1, { message: 'Pick at least one job' }).max(10)),
+  accessType: accessTypeSchema,
+});
+
+/** Weeks of this kind of access the jobs' accepted quotes priced; a booking left without weeks priced takes these. */
+export interface QuotedHireWeeksDto {
+  pricedWeeks: number | null;
+  quoteReferences: string[];
+}
+
 export interface HireCostDto {
   erect: string;
   strike: string;

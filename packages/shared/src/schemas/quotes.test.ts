@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { actualCostPence, costingSettingsSchema, priceQuote, quoteContentSchema } from './quotes.js';
+import { actualCostPence, costingSettingsSchema, priceQuote, quoteContentSchema, quotedHireWeeks } from './quotes.js';
 
 // An invented firm and garden-wall job; every figure below is worked by hand from these.
 const settings = costingSettingsSchema.parse({
@@ -53,5 +53,31 @@ describe('actualCostPence', () => {
     // Source: worked by hand — 4 days: labour 144,000, running costs 4,800, travel 6,000; + 56,100 + 9,000.
     expect(actualCostPence(content, settings, { days: 4, weatherDaysLost: 0, extraAccessPence: 9_000, extraMaterialsPence: 5_000 }))
       .toBe(56_100 + 144_000 + 4_800 + 6_000 + 9_000 + 9_000 + 5_000);
+  });
+});
+
+describe('quotedHireWeeks', () => {
+  const hire = quoteContentSchema.parse({
+    ...content,
+    accessHire: [
+      { description: 'Tower, front', accessType: 'tower', weeks: 1, minimumWeeks: 2, weeklyRatePence: 9_000 },
+      { description: 'Tower, back', accessType: 'tower', weeks: 3, minimumWeeks: 1, weeklyRatePence: 9_000 },
+      { description: 'Scaffold', accessType: 'scaffold', weeks: 4, minimumWeeks: 1, weeklyRatePence: 20_000 },
+      { description: 'Skip', weeks: 1, minimumWeeks: 1, weeklyRatePence: 6_000 },
+    ],
+  });
+
+  // Source: worked by hand — each line is charged max(weeks, minimum): towers 2 + 3, scaffold 4.
+  it.each([
+    ['tower', 5],
+    ['scaffold', 4],
+    ['mewp', null],
+  ] as const)('sums the charged weeks of the %s lines: %s', (accessType, expected) => {
+    expect(quotedHireWeeks(hire, accessType)).toBe(expected);
+  });
+
+  it('treats a line without a kind as no kind of access', () => {
+    expect(hire.accessHire[3]!.accessType).toBeNull();
+    expect(quotedHireWeeks({ accessHire: [{ description: 'Old line', weeks: 2, minimumWeeks: 1, weeklyRatePence: 1 } as never] }, 'scaffold')).toBeNull();
   });
 });

@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import { priceJob, type PriceBreakdown, type PriceJobInput, type PriceLine } from '../rules/costing.js';
+import type { AccessType } from '../terms/access.js';
+import { accessTypeSchema } from './access.js';
 import { idSchema, optionalText, requiredText } from './common.js';
 
 // Fits a PostgreSQL integer column: £20 million is far beyond any job a small firm prices.
@@ -111,6 +113,8 @@ export const quoteLabourLineSchema = z.object({
 });
 export const quoteAccessLineSchema = z.object({
   description: requiredText(200, 'What is hired'),
+  /** Which kind of access this is, so the job's access booking of that kind starts from the weeks priced here. */
+  accessType: accessTypeSchema.nullable().default(null),
   weeks: z.number({ message: 'Enter the weeks' }).int({ message: 'Whole weeks' }).min(1).max(520),
   minimumWeeks: z.number().int({ message: 'Whole weeks' }).min(0).max(520),
   weeklyRatePence: penceAmountSchema,
@@ -361,6 +365,15 @@ export function travelPerDayPence(settings: Pick<CostingSettings, 'travelMode' |
 /** Hire is charged for whole weeks and never below the supplier's minimum. */
 export function accessChargedWeeks(line: Pick<z.output<typeof quoteAccessLineSchema>, 'weeks' | 'minimumWeeks'>): number {
   return Math.max(line.weeks, line.minimumWeeks);
+}
+
+/**
+ * Hire weeks a quote priced for one kind of access: the charged weeks of its lines of that kind, summed;
+ * null when the quote prices none. Lines saved before they carried a kind count as no kind.
+ */
+export function quotedHireWeeks(content: Pick<QuoteContent, 'accessHire'>, accessType: AccessType): number | null {
+  const lines = content.accessHire.filter((line) => (line.accessType ?? null) === accessType);
+  return lines.length === 0 ? null : lines.reduce((t, line) => t + accessChargedWeeks(line), 0);
 }
 
 /**
