@@ -7,6 +7,7 @@ import {
   costingSettingsSchema,
   priceQuote,
   quoteContentSchema,
+  type AccessBookingDto,
   type BoardDto,
   type CostingReportDto,
   type QuoteContentInput,
@@ -477,6 +478,44 @@ describe('estimate against actual', () => {
       days: 3, daysFrom: 'board', weatherDaysLost: 0, extraAccessWeeks: 1, extraAccessPence: 9_000, extraMaterialsPence: 5_000,
       costPence: 198_656, marginPence: 12_348, marginPct: 5.9, notes: 'Ten more copings',
     });
+  });
+
+  it('starts a booking left without weeks priced from the weeks the accepted quote priced for that kind of access', async () => {
+    // Worked by hand: the tower line is 1 week against the hirer's 2-week minimum, so the quote priced 2 weeks.
+    // The scaffold line is another kind of access and must not count towards the tower.
+    const content: QuoteContentInput = {
+      ...gardenWallContent,
+      accessHire: [
+        { description: 'Tower', accessType: 'tower', weeks: 1, minimumWeeks: 2, weeklyRatePence: 9_000 },
+        { description: 'Scaffold to the gable', accessType: 'scaffold', weeks: 4, minimumWeeks: 1, weeklyRatePence: 20_000 },
+      ],
+    };
+    const { jobId } = await acceptedAndPlaced(content);
+    const quote = ((await request(h.app).get(`/api/quotes?jobId=${jobId}`).set(owner.auth).expect(200)).body as Array<{ reference: string }>)[0]!;
+    const prefill = await request(h.app).get(`/api/access-bookings/quoted-weeks?jobIds=${jobId}&accessType=tower`).set(owner.auth).expect(200);
+    expect(prefill.body).toEqual({ pricedWeeks: 2, quoteReferences: [quote.reference] });
+    const unpriced = await request(h.app).get(`/api/access-bookings/quoted-weeks?jobIds=${jobId}&accessType=mewp`).set(owner.auth).expect(200);
+    expect(unpriced.body).toEqual({ pricedWeeks: null, quoteReferences: [] });
+
+    const supplier = await request(h.app).post('/api/suppliers').set(owner.auth).send({ name: 'Steeple Towers', email: 'hire@steeple.example' }).expect(201);
+    // 12 March to 2 April is 21 days on hire: 3 weeks charged against the 2 priced, one extra week at 9,000.
+    const tower = (await request(h.app).post('/api/access-bookings').set(owner.auth).send({
+      jobIds: [jobId], accessType: 'tower', supplierId: supplier.body.id,
+      requestedErect: '2027-03-12', requestedStrike: '2027-04-02', weeklyRate: 9_000, minimumWeeks: 1,
+    }).expect(201)).body as AccessBookingDto;
+    expect(tower.hire).toMatchObject({ chargedWeeks: 3, pricedWeeks: 2, overPricedPence: 9_000 });
+    // A kind the quote did not price keeps the booking's own weeks as priced: nothing over.
+    const mewp = (await request(h.app).post('/api/access-bookings').set(owner.auth).send({
+      jobIds: [jobId], accessType: 'mewp', supplierId: supplier.body.id,
+      requestedErect: '2027-03-12', requestedStrike: '2027-03-26', weeklyRate: 30_000, minimumWeeks: 1,
+    }).expect(201)).body as AccessBookingDto;
+    expect(mewp.hire).toMatchObject({ chargedWeeks: 2, pricedWeeks: 2, overPricedPence: 0 });
+
+    const row = (await report()).rows[0]!;
+    expect(row.actual).toMatchObject({ extraAccessWeeks: 1, extraAccessPence: 9_000 });
+
+    const other = await signUpFirm(h, 'Elsewhere Builders', 'owner@elsewhere.example');
+    await request(h.app).get(`/api/access-bookings/quoted-weeks?jobIds=${jobId}&accessType=tower`).set(other.auth).expect(404);
   });
 
   it('takes 2 days lost from a 2-day stand-down, and the achieved margin pays for them', async () => {

@@ -113,7 +113,7 @@ describe('firm isolation', () => {
       'GET /api/people', 'POST /api/people/invite', 'GET /api/crews', 'POST /api/crews', 'GET /api/clients',
       'POST /api/clients', 'GET /api/sites', 'POST /api/sites', 'GET /api/jobs', 'POST /api/jobs', 'GET /api/firm', 'PUT /api/firm',
       'GET /api/board', 'GET /api/board/changes', 'POST /api/assignments', 'GET /api/time-off', 'POST /api/time-off',
-      'GET /api/suppliers', 'POST /api/suppliers', 'GET /api/access-bookings', 'POST /api/access-bookings',
+      'GET /api/suppliers', 'POST /api/suppliers', 'GET /api/access-bookings', 'POST /api/access-bookings', 'GET /api/access-bookings/quoted-weeks',
       'GET /api/weather-holds', 'POST /api/weather-holds', 'GET /api/weather-holds/summary', 'GET /api/weather/outlook', 'POST /api/weather/refresh',
       'GET /api/weather/limits', 'PUT /api/weather/limits']);
     const uncovered = routes.filter((route) => !route.path.includes(':id') && !collection.has(`${route.method} ${route.path}`));
@@ -136,6 +136,8 @@ describe('firm isolation', () => {
       const res = await request(h.app).post(create.url).set(actor.auth).send(create.body);
       expect([403, 404], `${role} POST ${create.url} → ${res.status}`).toContain(res.status);
     }
+    const quoted = await request(h.app).get(`/api/access-bookings/quoted-weeks?jobIds=${idsB.jobId}&accessType=scaffold`).set(actor.auth);
+    expect([403, 404], `${role} GET quoted weeks of firm B's job → ${quoted.status}`).toContain(quoted.status);
     expect(await countRows(h.dataSource)).toEqual(before);
   });
 

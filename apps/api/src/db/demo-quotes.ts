@@ -83,7 +83,7 @@ const STACK: QuoteContentInput = {
   labour: [{ description: 'Bricklayer', people: 2, days: 3, dayRatePence: 23_000 }],
   jobDays: 3,
   distanceMiles: 14,
-  accessHire: [{ description: 'Scaffold to the stack', weeks: 2, minimumWeeks: 2, weeklyRatePence: 22_000 }],
+  accessHire: [{ description: 'Scaffold to the stack', accessType: 'scaffold', weeks: 2, minimumWeeks: 2, weeklyRatePence: 22_000 }],
   marginPct: 18,
   breakdownLevel: 'lines',
   brickCalc: null,

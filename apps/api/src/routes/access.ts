@@ -3,6 +3,7 @@ import { z } from 'zod';
 import {
   accessBookingInputSchema,
   accessListQuerySchema,
+  accessQuotedWeeksQuerySchema,
   accessStateChangeSchema,
   idParamsSchema,
   inspectionInputSchema,
@@ -36,6 +37,9 @@ export function accessBookingsRouter(access: AccessService): Router {
   const router = Router();
   router.get('/', ...endpoint({ query: accessListQuerySchema }, async ({ actor, query }, _req, res) => {
     res.json(await access.list(actor, query));
+  }));
+  router.get('/quoted-weeks', ...endpoint({ query: accessQuotedWeeksQuerySchema }, async ({ actor, query }, _req, res) => {
+    res.json(await access.quotedHireWeeks(actor, query.jobIds, query.accessType));
   }));
   router.get('/:id', ...endpoint({ params: idParamsSchema }, async ({ actor, params }, _req, res) => {
     res.json(await access.get(actor, params.id));

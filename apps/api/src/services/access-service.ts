@@ -8,6 +8,7 @@ import {
   hireCost,
   inspectionRecordsKeptUntil,
   inspectionsDue,
+  quotedHireWeeks,
   windStopDays,
   type AccessType,
   type Activity,
@@ -21,6 +22,7 @@ import {
   type HireCostDto,
   type InspectionStatusDto,
   type PhotoDto,
+  type QuotedHireWeeksDto,
   type ScaffoldInspectionDto,
   type SupplierDto,
   type SupplierLinkDto,
@@ -28,7 +30,9 @@ import {
 } from '@hodboard/shared';
 import type { z } from 'zod';
 import type { accessStateChangeSchema, inspectionInputSchema, supplierResponseSchema } from '@hodboard/shared';
-import { AccessBooking, AccessChangeRequest, Assignment, Firm, FirmWeatherLimits, ForecastHourRow, Job, Photo, ScaffoldInspection, Site, Supplier, User, WeatherHold } from '../entities/index.js';
+import {
+  AccessBooking, AccessChangeRequest, Assignment, Firm, FirmWeatherLimits, ForecastHourRow, Job, Photo, Quote, QuoteVersion, ScaffoldInspection, Site, Supplier, User, WeatherHold,
+} from '../entities/index.js';
 import type { PlacedAssignment } from './schedule-service.js';
 import { AppError, errors } from '../errors.js';
 import type { Clock } from '../lib/clock.js';
@@ -163,7 +167,9 @@ export class AccessService {
       if (erect && strike && strike < erect) throw errors.validation([{ path: 'requestedStrike', message: 'The strike date must be after the erect date' }]);
       const weeklyRate = input.weeklyRate ?? supplier.weeklyRates[input.accessType] ?? 0;
       const minimumWeeks = input.minimumWeeks ?? supplier.minimumWeeks;
-      const pricedWeeks = input.pricedWeeks ?? (erect && strike ? hireCost({ erectBy: erect, strikeFrom: strike }, { weeklyRate, minimumWeeks }).chargedWeeks : null);
+      const pricedWeeks = input.pricedWeeks
+        ?? (await this.quotedWeeks(manager, actor.firmId, input.jobIds, input.accessType)).pricedWeeks
+        ?? (erect && strike ? hireCost({ erectBy: erect, strikeFrom: strike }, { weeklyRate, minimumWeeks }).chargedWeeks : null);
       const created = await manager.save(scope.create(AccessBooking, {
         jobIds: [...new Set(input.jobIds)], accessType: input.accessType, supplierId: supplier.id, state: 'requested',
         requestedErect: erect, requestedStrike: strike, confirmedErect: null, confirmedStrike: null, erectedOn: null, struckOn: null,
@@ -174,6 +180,37 @@ export class AccessService {
     });
     this.publish(actor.firmId, 'access:created', booking);
     return this.get(actor, booking.id);
+  }
+
+  /** What a new booking for these jobs would take as its weeks priced, for the booking form to show before it is sent. */
+  async quotedHireWeeks(actor: Actor, jobIds: string[], accessType: AccessType): Promise<QuotedHireWeeksDto> {
+    requirePermission(actor, 'access:manage');
+    const manager = this.dataSource.manager;
+    await new FirmScope(manager, actor.firmId).assertAllExist(Job, jobIds, 'Job');
+    return this.quotedWeeks(manager, actor.firmId, jobIds, accessType);
+  }
+
+  /**
+   * The weeks of this kind of access priced in the jobs' accepted quotes, summed over the jobs (neighbouring jobs
+   * sharing one scaffold each paid for their part of it); null when none of them priced it.
+   */
+  private async quotedWeeks(manager: EntityManager, firmId: string, jobIds: string[], accessType: AccessType): Promise<QuotedHireWeeksDto> {
+    const quotes = (await new FirmScope(manager, firmId)
+      .query(Quote, 'quote')
+      .innerJoinAndMapOne('quote.current', QuoteVersion, 'current', 'current.id = quote.current_version_id')
+      .andWhere("quote.status = 'accepted'")
+      .andWhere('quote.job_id IN (:...jobIds)', { jobIds: [...new Set(jobIds)] })
+      .orderBy('quote.reference', 'ASC')
+      .getMany()) as Array<Quote & { current: QuoteVersion }>;
+    let pricedWeeks: number | null = null;
+    const quoteReferences: string[] = [];
+    for (const quote of quotes) {
+      const weeks = quotedHireWeeks(quote.current.content, accessType);
+      if (weeks === null) continue;
+      pricedWeeks = (pricedWeeks ?? 0) + weeks;
+      quoteReferences.push(quote.reference);
+    }
+    return { pricedWeeks, quoteReferences };
   }
 
   async changeState(actor: Actor, id: string, input: StateChange): Promise<AccessBookingDto> {
