@@ -2,7 +2,9 @@ import type {
   AccessBookingDto,
   AccessBookingInput,
   AccessState,
+  AccessType,
   InspectionInput,
+  QuotedHireWeeksDto,
   ScaffoldInspectionDto,
   SupplierDto,
   SupplierInput,
@@ -42,6 +44,11 @@ export function listAccessBookings(query: AccessBookingQuery = {}): Promise<Acce
 
 export function getAccessBooking(bookingId: string): Promise<AccessBookingDto> {
   return http.get<AccessBookingDto>(`/access-bookings/${id(bookingId)}`);
+}
+
+/** The weeks priced for this kind of access in the jobs' accepted quotes, which a booking left without weeks priced takes. */
+export function getQuotedHireWeeks(jobIds: string[], accessType: AccessType): Promise<QuotedHireWeeksDto> {
+  return http.get<QuotedHireWeeksDto>('/access-bookings/quoted-weeks', { query: { jobIds: jobIds.join(','), accessType } });
 }
 
 export function createAccessBooking(input: AccessBookingInput): Promise<AccessBookingDto> {
