@@ -1,3 +1,4 @@
+import * as Astronomy from 'astronomy-engine';
 import { describe, expect, it } from 'vitest';
 import { daylight, workingWindow } from './daylight.js';
 
@@ -11,27 +12,68 @@ function minutesOfDay(iso: string | null): number {
 }
 const hm = (s: string): number => Number(s.slice(0, 2)) * 60 + Number(s.slice(3, 5));
 
-describe('daylight', () => {
-  // Published times are to the minute and for an unstated point in London, so ±2 min.
-  it.each([
-    ['2011-06-21', '04:42', '21:20', 2], // Source: foxywaitingroom.wordpress.com 21 Jun 2011, London sunrise 4:42 am, sunset 9:20 pm
-    ['2018-12-21', '08:04', '15:53', 2], // Source: inews.co.uk, UK sunrise and sunset, Friday 21 December (2018): London 8.04am/3.53pm
-    ['2018-12-22', '08:04', '15:54', 2], // Source: inews.co.uk, Saturday 22 December (2018): London 8.04am/3.54pm
-    ['2021-11-25', '07:35', '15:59', 2], // Source: inews.co.uk, Thursday 25 November (2021): London 7.35am/3.59pm
-    ['2021-11-30', '07:42', '15:55', 2], // Source: inews.co.uk, Tuesday 30 November (2021): London 7.42am/3.55pm
-    ['2026-01-01', '08:07', '16:01', 3], // Source: whattime.city/london/sun, 1st-of-month table (year not stated, so ±3 min)
-    ['2026-06-01', '04:51', '21:07', 3], // Source: whattime.city/london/sun, 1st-of-month table (year not stated, so ±3 min)
-    ['2026-12-01', '07:43', '15:57', 3], // Source: whattime.city/london/sun, 1st-of-month table (year not stated, so ±3 min)
-  ])('gives London sunrise and sunset on %s within the published %s / %s', (date, rise, set, tolerance) => {
-    const t = daylight(date, LONDON.lat, LONDON.lon);
-    expect(Math.abs(minutesOfDay(t.sunrise) - hm(rise))).toBeLessThanOrEqual(tolerance);
-    expect(Math.abs(minutesOfDay(t.sunset) - hm(set))).toBeLessThanOrEqual(tolerance);
-  });
+/**
+ * Sunrise, sunset and civil twilight from astronomy-engine, an ephemeris written apart from suncalc:
+ * rise and set with standard refraction and the Sun's apparent radius, twilight at the centre 6° down.
+ * Searched from local mean midnight at the site's longitude, so each falls on that local date.
+ */
+function reference(date: string, lat: number, lon: number) {
+  const [y, m, d] = date.split('-').map(Number) as [number, number, number];
+  const from = new Date(Date.UTC(y, m - 1, d) - (lon / 15) * 3_600_000);
+  const site = new Astronomy.Observer(lat, lon, 0);
+  const at = (t: Astronomy.AstroTime | null): number => {
+    if (t === null) throw new Error(`no event on ${date} at ${lat}, ${lon}`);
+    return t.date.getTime();
+  };
+  return {
+    sunrise: at(Astronomy.SearchRiseSet(Astronomy.Body.Sun, site, +1, from, 1)),
+    sunset: at(Astronomy.SearchRiseSet(Astronomy.Body.Sun, site, -1, from, 1)),
+    civilDawn: at(Astronomy.SearchAltitude(Astronomy.Body.Sun, site, +1, from, 1, -6)),
+    civilDusk: at(Astronomy.SearchAltitude(Astronomy.Body.Sun, site, -1, from, 1, -6)),
+  };
+}
+const minutesApart = (iso: string | null, ms: number): number => {
+  if (iso === null) throw new Error('expected a time');
+  return Math.abs(Date.parse(iso) - ms) / 60_000;
+};
 
-  it('gives the published length of London’s shortest day', () => {
-    // Source: flat36.blogspot.com (Oct 2007): 22 Dec 2007 lasts 7 h 49 min 40 s, sunset 3:53 pm
-    const t = daylight('2007-12-22', LONDON.lat, LONDON.lon);
-    expect(Math.abs(t.daylightHours * 3600 - (7 * 3600 + 49 * 60 + 40))).toBeLessThanOrEqual(120);
+const PLACES = [
+  ['London', 51.5074, -0.1278],
+  ['Penzance', 50.1188, -5.5376],
+  ['Edinburgh', 55.9533, -3.1883],
+  ['Lerwick', 60.1546, -1.1494],
+  ['New York', 40.7128, -74.006],
+  ['Denver', 39.7392, -104.9903],
+] as const;
+// Equinoxes, solstices, both UK clock changes and a January day.
+const DATES = ['2026-03-20', '2026-03-29', '2026-06-21', '2026-09-23', '2026-10-25', '2026-12-21', '2027-01-15'];
+
+describe('daylight', () => {
+  it.each(PLACES.flatMap(([name, lat, lon]) => DATES.map((date) => [name, date, lat, lon] as const)))(
+    'agrees with astronomy-engine within a minute in %s on %s',
+    (_name, date, lat, lon) => {
+      // Source: astronomy-engine 2.1.19 (npm), SearchRiseSet (refraction and solar radius) and SearchAltitude −6° (civil twilight);
+      // its own method, not suncalc's. ±1 min: the published tables below give whole minutes.
+      const t = daylight(date, lat, lon);
+      const ref = reference(date, lat, lon);
+      expect(minutesApart(t.sunrise, ref.sunrise)).toBeLessThanOrEqual(1);
+      expect(minutesApart(t.sunset, ref.sunset)).toBeLessThanOrEqual(1);
+      expect(minutesApart(t.civilDawn, ref.civilDawn)).toBeLessThanOrEqual(1);
+      expect(minutesApart(t.civilDusk, ref.civilDusk)).toBeLessThanOrEqual(1);
+      expect(Math.abs(t.daylightHours - (ref.sunset - ref.sunrise) / 3_600_000) * 60).toBeLessThanOrEqual(1);
+    },
+  );
+
+  // Dated newspaper tables, to the minute, for an unstated point in London, so ±2 min.
+  it.each([
+    ['2018-12-21', '08:04', '15:53'], // Source: inews.co.uk, UK sunrise and sunset, Friday 21 December (2018): London 8.04am/3.53pm
+    ['2018-12-22', '08:04', '15:54'], // Source: inews.co.uk, Saturday 22 December (2018): London 8.04am/3.54pm
+    ['2021-11-25', '07:35', '15:59'], // Source: inews.co.uk, Thursday 25 November (2021): London 7.35am/3.59pm
+    ['2021-11-30', '07:42', '15:55'], // Source: inews.co.uk, Tuesday 30 November (2021): London 7.42am/3.55pm
+  ])('gives London sunrise and sunset on %s within 2 min of the published %s / %s', (date, rise, set) => {
+    const t = daylight(date, LONDON.lat, LONDON.lon);
+    expect(Math.abs(minutesOfDay(t.sunrise) - hm(rise))).toBeLessThanOrEqual(2);
+    expect(Math.abs(minutesOfDay(t.sunset) - hm(set))).toBeLessThanOrEqual(2);
   });
 
   it('puts civil dawn before sunrise and civil dusk after sunset', () => {
@@ -56,11 +98,26 @@ describe('workingWindow', () => {
   const hours = { start: '07:30', end: '17:00' };
 
   it('cuts the firm’s hours to daylight in midwinter', () => {
+    // Source: common practice, no source — no outdoor work in the dark; the cut is sunrise–sunset by default
     const light = daylight('2026-12-21', LONDON.lat, LONDON.lon);
     const w = workingWindow('2026-12-21', hours, 'Europe/London', { times: light });
     expect(w?.start).toBe(light.sunrise);
     expect(w?.end).toBe(light.sunset);
     expect(w?.hours).toBeLessThan(8);
+  });
+
+  it.each([
+    ['London', '2026-12-21', 51.5074, -0.1278],
+    ['Edinburgh', '2026-12-21', 55.9533, -3.1883],
+    ['Lerwick', '2027-01-15', 60.1546, -1.1494],
+  ] as const)('cuts a %s winter day on %s to within a minute of astronomy-engine’s sunrise and sunset', (_name, date, lat, lon) => {
+    // Source: astronomy-engine 2.1.19 (npm), SearchRiseSet with refraction and solar radius, apart from suncalc; 07:30–17:00 GMT spans both
+    const w = workingWindow(date, hours, 'Europe/London', { times: daylight(date, lat, lon) });
+    const ref = reference(date, lat, lon);
+    if (w === null) throw new Error('expected a window');
+    expect(minutesApart(w.start, ref.sunrise)).toBeLessThanOrEqual(1);
+    expect(minutesApart(w.end, ref.sunset)).toBeLessThanOrEqual(1);
+    expect(Math.abs(w.hours - (ref.sunset - ref.sunrise) / 3_600_000) * 60).toBeLessThanOrEqual(2);
   });
 
   it('keeps the firm’s hours in midsummer, in summer time', () => {
