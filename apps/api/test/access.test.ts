@@ -351,6 +351,30 @@ describe('hire cost', () => {
   });
 });
 
+describe('hire cost from the days the access actually stood', () => {
+  it('counts from the day it went up and to the day it came down, whatever dates were booked', async () => {
+    const created = (await request(h.app).post('/api/access-bookings').set(owner.auth)
+      .send({ jobIds: [ids.jobId], accessType: 'scaffold', supplierId, minimumWeeks: 1, pricedWeeks: 1 }).expect(201)).body as AccessBookingDto;
+    // Booked Fri 26 Feb → Thu 4 Mar 2027: 6 days, one part week = 1 week × £180.00.
+    expect(created.hire).toMatchObject({ erect: '2027-02-26', strike: '2027-03-04', hireDays: 6, chargedWeeks: 1, pence: 18_000, overPricedPence: 0 });
+    const confirmed = (await request(h.app).post(`/api/access-bookings/${created.id}/state`).set(owner.auth).send({ state: 'confirmed', version: created.version }).expect(200)).body as AccessBookingDto;
+
+    // Put up early, on Mon 22 Feb: 22 Feb → 4 Mar is 10 days = 2 weeks (part week up) = £360.00, one week (£180.00) over the price.
+    h.now.value = new Date('2027-02-22T10:00:00Z');
+    const up = (await request(h.app).post(`/api/access-bookings/${created.id}/state`).set(owner.auth).send({ state: 'erected', version: confirmed.version }).expect(200)).body as AccessBookingDto;
+    expect(up.hire).toMatchObject({ erect: '2027-02-22', strike: '2027-03-04', hireDays: 10, chargedWeeks: 2, pence: 36_000, pricedWeeks: 1, overPricedPence: 18_000 });
+    const board = (await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-05' }).set(owner.auth).expect(200)).body as BoardDto;
+    expect(board.conflicts.find((c) => c.kind === 'hire-extended')?.message).toBe('Hire now 2 weeks, 1 more than priced: £180.00 extra');
+
+    // Taken down late, on Fri 12 Mar: 22 Feb → 12 Mar is 18 days = 3 weeks = £540.00, two weeks (£360.00) over the price.
+    h.now.value = new Date('2027-03-12T16:00:00Z');
+    const down = (await request(h.app).post(`/api/access-bookings/${created.id}/state`).set(owner.auth).send({ state: 'struck', version: up.version }).expect(200)).body as AccessBookingDto;
+    expect(down).toMatchObject({ confirmedStrike: '2027-03-04' });
+    expect(down.hire).toEqual({ erect: '2027-02-22', strike: '2027-03-12', hireDays: 18, chargedWeeks: 3, pence: 54_000, pricedWeeks: 1, overPricedPence: 36_000 });
+    expect((await bookingNow(created.id)).hire).toEqual(down.hire);
+  });
+});
+
 describe('inspections', () => {
   async function erected(): Promise<AccessBookingDto> {
     const booking = (await book()).body as AccessBookingDto;

@@ -743,9 +743,10 @@ export class AccessService {
   }
 }
 
+/** The hire as it stands: the days it actually went up and came down win over the agreed ones, which win over the asked. */
 function currentWindow(booking: AccessBooking): Window | null {
   const erect = booking.erectedOn ?? booking.confirmedErect ?? booking.requestedErect;
-  const strike = booking.confirmedStrike ?? booking.requestedStrike;
+  const strike = booking.struckOn ?? booking.confirmedStrike ?? booking.requestedStrike;
   return erect && strike ? { erect, strike } : null;
 }
 
