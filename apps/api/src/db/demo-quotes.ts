@@ -58,7 +58,7 @@ const GARDEN_WALL: QuoteContentInput = {
   exclusions: DEMO_SETTINGS.defaultExclusions,
   materials: [
     { description: 'Red multi facing brick', unit: 'brick', quantity: 1_021, unitPricePence: 78, wastePct: 0 },
-    { description: 'Mortar, 1:5 ready-mixed', unit: 'm³', quantity: 0.304, unitPricePence: 16_500, wastePct: 0 },
+    { description: 'Mortar, 1:5 ready-mixed', unit: 'm³', quantity: 0.39, unitPricePence: 16_500, wastePct: 0 },
     { description: 'Brick-on-edge coping, half round', unit: 'each', quantity: 30, unitPricePence: 395, wastePct: 5 },
   ],
   labour: [
