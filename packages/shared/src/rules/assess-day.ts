@@ -67,10 +67,10 @@ const HEIGHT_ADVICE: readonly string[] = Object.freeze([
   'Work at height: check the scaffold, tower or platform and edge protection before use, keep to the inspection schedule, and follow the Work at Height Regulations 2005 (or local equivalent) and the competent person on site. Wind rises with height: forecasts are for 10 m.',
 ]);
 const MORTAR_ADVICE: readonly string[] = Object.freeze([
-  'Cover new work at the end of each day and whenever work stops (NBS F10/185); rake out and relay any mortar damaged by frost.',
+  'Cover new work at the end of each day and whenever work stops (NBS F10/185); rake out and relay any mortar damaged by frost. Follow the mortar manufacturer’s and the specifier’s guidance, and the site’s competent person.',
 ]);
 const CONCRETE_ADVICE: readonly string[] = Object.freeze([
-  'Cover fresh concrete against rain and frost; follow the supplier and specification on curing and protection.',
+  'Cover fresh concrete against rain and frost; follow the concrete supplier’s and the specifier’s guidance on curing and protection, and the site’s competent person.',
 ]);
 const GROUND_ADVICE: readonly string[] = Object.freeze([
   'Excavations: support or batter trench sides and inspect them at the start of each shift and after heavy rain, as a competent person and local regulations require.',

@@ -9,6 +9,18 @@ function pour(at: (h: number) => Partial<HourValues>, settings: RuleSettings = d
 }
 const find = (d: DayAssessment, id: string) => d.activities[0]?.reasons.find((r) => r.ruleId === id);
 
+describe('concrete reason wording', () => {
+  it.each([
+    ['cold.concrete.freezing', (h: number) => (inWindow(h) ? { tempC: -1 } : {})], // Source: common practice, no source — no pour into freezing air
+    ['cold.concrete.uk-discharge', (h: number) => (inWindow(h) ? { tempC: 4 } : {})], // Source: BS 8500 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
+    ['cold.concrete.aci306', (h: number) => (h === 30 ? { tempC: 2 } : {})], // Source: ACI 306R (concrete.org), at or below 40 °F in the protection period
+  ] as const)('%s defers to the supplier, the specifier and the competent person', (ruleId, at) => {
+    const day = pour(at);
+    expect(find(day, ruleId)?.message).toMatch(/Follow the concrete supplier’s and the specifier’s guidance and local regulations, and check with the site’s competent person\.$/);
+    expect(day.activities[0]?.advice[0]).toMatch(/concrete supplier’s and the specifier’s guidance on curing and protection, and the site’s competent person/);
+  });
+});
+
 describe('concrete in cold weather', () => {
   it.each([
     [5, 'none'], // Source: BS 8500-2 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)

@@ -2,7 +2,7 @@ import { coldestAhead, fmt, HOUR, lookAheadCover, lookAheadReason, tempReason, w
 import { SOURCES } from './sources.js';
 import { cToF } from './units.js';
 
-const DEFER = 'Follow the concrete supplier, the specification and local regulations.';
+const DEFER = 'Follow the concrete supplier’s and the specifier’s guidance and local regulations, and check with the site’s competent person.';
 
 export function checkConcreteFreezing(ctx: HourContext, blocked: Uint8Array, out: RuleReason[]): void {
   const s = ctx.settings;
@@ -47,7 +47,7 @@ export function checkConcreteColdWeather(ctx: HourContext, out: RuleReason[]): v
   const cover = lookAheadCover(ctx, until);
   if (cover) {
     out.push(lookAheadReason(
-      ctx, cover, 'forecast.reach.concrete-protection', `concrete protection period (${s.concreteProtectionHours} h from the start of work)`,
+      ctx, cover, 'forecast.reach.concrete-protection', 'concrete protection period from the start of work',
       'Cold weather then (air at or below 40 °F / 4.4 °C) is not ruled out: check the forecast again before then and keep blankets or an enclosure to hand.', DEFER, SOURCES.forecastReach,
     ));
   }

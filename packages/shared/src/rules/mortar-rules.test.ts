@@ -143,6 +143,35 @@ describe('UK cold weather for mortar', () => {
   });
 });
 
+describe('mortar reason wording', () => {
+  const defer = /Follow the mortar manufacturer’s and the specifier’s guidance and local regulations, and check with the site’s competent person\.$/;
+
+  it.each([
+    ['cold.mortar.cement', (h: number) => (inWindow(h) ? { tempC: 2 } : {}), defaultRuleSettings], // Source: NBS F10/185 (secondary copy); NHBC Standards 2023 §3.2.5
+    ['cold.mortar.frost-protection', (h: number) => (h === 30 ? { tempC: -2 } : {}), defaultRuleSettings], // Source: NHBC Standards 2023 §3.2.5, frost protection up to six days
+    ['heat.mortar.uk', (h: number) => (inWindow(h) ? { tempC: 31 } : {}), defaultRuleSettings], // Source: NHBC Standards 2022 §6.1.20, above 30 °C
+    ['cold.mortar.us-construction', (h: number) => (inWindow(h) ? { tempC: fToC(30) } : {}), us], // Source: TMS 602 cold-weather table (secondary copy)
+    ['cold.mortar.us-protection', () => ({ tempC: fToC(30) }), us], // Source: TMS 602 protection by mean daily temperature (secondary copy)
+    ['heat.mortar.us', (h: number) => (inWindow(h) ? { tempC: fToC(101) } : {}), us], // Source: TMS 602 hot weather, above 100 °F (secondary copy)
+  ] as const)('%s defers to the manufacturer, the specifier and the competent person', (ruleId, at, settings) => {
+    const r = find(dayWith('bricklaying', at, settings), ruleId);
+    expect(r).toBeDefined();
+    expect(r?.message).toMatch(defer);
+  });
+
+  it('says so too when the forecast does not reach the frost period', () => {
+    // Source: NHBC Standards 2023 §3.2.5, six days; Hodboard rule for the look-ahead that runs past the forecast
+    expect(find(dayWith('pointing', () => ({}), defaultRuleSettings, 72), 'forecast.reach.frost-protection')?.message).toMatch(defer);
+  });
+
+  it('gives the same deferral in the rain rule and the standing advice for fresh work', () => {
+    // Source: NBS F10/185 cover the work during rain (secondary copy); the rain thresholds are common practice, no source
+    const day = dayWith('rendering', (h) => (inWindow(h) ? { precipMm: 1, precipProbability: 0.9 } : {}));
+    expect(find(day, 'rain.fresh-work')?.message).toMatch(/manufacturer’s and the specifier’s guidance, and check with the site’s competent person/);
+    expect(day.activities[0]?.advice[0]).toMatch(/mortar manufacturer’s and the specifier’s guidance, and the site’s competent person/);
+  });
+});
+
 describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
   it.each([
     [40, null], // Source: TMS 602 — cold-weather provisions below 40 °F (Masonry Magazine Sept 2004, Table 2)

@@ -6,7 +6,7 @@ import {
 import { SOURCES } from './sources.js';
 import { cToF, msToMph } from './units.js';
 
-const DEFER = 'Follow the project specification and local regulations.';
+const DEFER = 'Follow the mortar manufacturer’s and the specifier’s guidance and local regulations, and check with the site’s competent person.';
 
 /**
  * Direction of the thermometer through hour `i`: towards the next reading, or from the
@@ -66,7 +66,7 @@ export function checkFrostProtection(ctx: HourContext, out: RuleReason[]): void 
   const cover = lookAheadCover(ctx, until);
   if (cover) {
     out.push(lookAheadReason(
-      ctx, cover, 'forecast.reach.frost-protection', `frost-protection period (${s.frostProtectionDays} days from the start of work)`,
+      ctx, cover, 'forecast.reach.frost-protection', `frost-protection period (${s.frostProtectionDays} days) from the start of work`,
       'Frost then is not ruled out: check the forecast again before then and keep frost protection for the new work to hand.', DEFER, SOURCES.forecastReach,
     ));
   }
@@ -142,7 +142,7 @@ export function checkUsMortarCold(ctx: HourContext, out: RuleReason[]): void {
   const cover = lookAheadCover(ctx, until);
   if (cover) {
     out.push(lookAheadReason(
-      ctx, cover, 'forecast.reach.us-protection', 'day that sets the protection (24 h from the start of work)',
+      ctx, cover, 'forecast.reach.us-protection', 'from the start of work that set the protection by mean daily temperature',
       'The mean daily temperature is worked out from the hours forecast only: check the forecast again and be ready to protect the new work.', DEFER, SOURCES.forecastReach,
     ));
   }

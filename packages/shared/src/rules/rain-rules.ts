@@ -1,6 +1,8 @@
 import { fmt, type ForecastHour, type HourContext, type RuleReason } from './forecast.js';
 import { SOURCES } from './sources.js';
 
+const DEFER = 'Follow the manufacturer’s and the specifier’s guidance, and check with the site’s competent person.';
+
 /** Fresh mortar, render and concrete: stop in likely rain, caution in possible rain. */
 export function checkRainOnFreshWork(ctx: HourContext, blocked: Uint8Array, out: RuleReason[]): void {
   const s = ctx.settings;
@@ -37,8 +39,8 @@ export function checkRainOnFreshWork(ctx: HourContext, blocked: Uint8Array, out:
     at: (f[at] as ForecastHour).time,
     hours: isStop ? stopHours : cautionHours,
     message: isStop
-      ? `Rain of ${fmt(worstMm)} mm/h (${pct} % likely) washes out fresh mortar, render and concrete surfaces: stop, and cover the work whenever it stops.`
-      : `Rain possible (${fmt(worstMm)} mm/h, ${pct} % likely): keep covers ready and cover the work whenever it stops.`,
+      ? `Rain of ${fmt(worstMm)} mm/h (${pct} % likely) washes out fresh mortar, render and concrete surfaces: stop, and cover the work whenever it stops. ${DEFER}`
+      : `Rain possible (${fmt(worstMm)} mm/h, ${pct} % likely): keep covers ready and cover the work whenever it stops. ${DEFER}`,
     source: SOURCES.rainFresh,
   });
 }

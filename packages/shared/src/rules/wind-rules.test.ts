@@ -176,6 +176,46 @@ describe('wind limits', () => {
   });
 });
 
+describe('wind reason wording', () => {
+  it.each([
+    // Source: BS EN 280 rated wind speed 12.5 m/s (IPAF FAQ 5848, secondary copy); the harm named is common practice, no source
+    ['mewp', 'wind.mewp.gust', 1, 14, [/can overturn the machine/, /throw people from the platform/, /Lower the platform and stop/]],
+    // Source: PASMA FAQ (pasma.co.uk/faqs/safety) — stop work and dismantle at an average of 17 mph; the harm named is common practice, no source
+    ['tower', 'wind.tower.mean', 9, 9, [/can blow over in the wind, and people on it can fall/, /dismantle the tower \(current PASMA guidance\)/, /do not use it above the tower manufacturer’s wind limit/]],
+    // Source: NFRC "Roofing and cladding in windy conditions", mean 23 mph (secondary copy); HSE roof-work FAQ, balance (secondary copy)
+    ['roof-work', 'wind.roof.mean', 11, 11, [/push roofers off balance and off the roof/, /lift slates, tiles, felt and loose materials onto people below/]],
+    // Source: NFRC windy-conditions guidance, sheets over 5 m gusting 26 mph (secondary copy); "like a sail" is common practice, no source
+    ['sheet-handling', 'wind.sheet.gust', 1, 12, [/catches the wind like a sail/, /off balance or off an edge/, /torn out of their hands/]],
+    // Source: scaffold designer blog "usual maximum" 18 m/s (weak secondary copy); the harm named is common practice, no source
+    ['work-at-height', 'wind.scaffold-use.gust', 1, 19, [/off balance at edges and off the scaffold/, /blow loose materials off the lifts/]],
+    // Source: common practice, no source (firm's scaffold-erection gust limit, NFRC 35 mph applied)
+    ['scaffold-erection', 'wind.scaffold-erection.gust', 1, 16, [/tear tubes and boards out of their hands/, /part-built scaffold/]],
+  ] as const)('%s: the %s stop names the harm and what to do', (activity, ruleId, meanMs, gustMs, parts) => {
+    const r = reason(windDay(activity, meanMs, gustMs), ruleId);
+    expect(r?.verdict).toBe('stop');
+    for (const part of parts) expect(r?.message).toMatch(part);
+    expect(r?.message).toMatch(/Follow local regulations and the site’s competent person, who may stop work sooner\.$/);
+  });
+
+  it('never tells a tower user to tie the tower instead of taking it down', () => {
+    // Source: PASMA FAQ (pasma.co.uk/faqs/safety), current guidance: stop and dismantle; "tie if 25 mph likely" is older, superseded guidance (trade-rules §1b)
+    for (const [mean, verdict] of [[6.5, 'caution'], [9, 'stop']] as const) {
+      const r = reason(windDay('tower', mean, mean), 'wind.tower.mean');
+      expect(r?.verdict).toBe(verdict);
+      expect(r?.message).not.toMatch(/\btie\b|\btied\b|\btying\b/i);
+      expect(r?.message).toMatch(/can blow over/);
+    }
+  });
+
+  it('names the harm in a caution too', () => {
+    // Source: HSE roof-work FAQ, winds over 23 mph (force 5) affect a person's balance (secondary copy)
+    const r = reason(windDay('roof-work', mphToMs(24), mphToMs(24), resolveRuleSettings({ roofMeanStopMs: 20 })), 'wind.roof.balance');
+    expect(r?.verdict).toBe('caution');
+    expect(r?.message).toMatch(/affects a person’s balance on a roof, risking a fall/);
+    expect(r?.message).toMatch(/competent person/);
+  });
+});
+
 describe('more wind never improves a verdict', () => {
   const hourArb = fc.record({
     tempC: fc.double({ min: -10, max: 35, noNaN: true }),
