@@ -138,7 +138,7 @@ export function createServices(deps: AppDeps): AppServices {
   );
   const weather = new WeatherService(deps.dataSource, forecasts, deps.mailer, events, deps.clock);
   const schedule = new ScheduleService(deps.dataSource, events, access, deps.logger, weather);
-  weather.attachSchedule(schedule);
+  weather.attachSchedule(schedule, access);
   const costing = new CostingSettingsService(deps.dataSource, events);
   const payments = new PaymentService(deps.dataSource, deps.clock, events, deps.stripe);
   const siteNotes = new SiteNoteService(deps.dataSource, events);

@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
-import type { BoardDto, ForecastHour, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
+import type { AccessBookingDto, BoardDto, ForecastHour, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
 import { createWeatherFake } from '../src/fakes/weather-fake.js';
 import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
 import { HttpForecastProvider, HttpGeocoder, type ForecastProvider } from '../src/services/weather/forecast-provider.js';
@@ -134,6 +134,46 @@ describe('stand-downs and re-plans', () => {
     expect([a.status, b.status].sort()).toEqual([200, 409]);
     const history = await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200);
     expect((history.body as Array<{ action: string }>).filter((e) => e.action === 'replanned')).toHaveLength(2); // one move + one hold line
+  });
+
+  it('previews exactly the booking changes the commit makes, a scaffold shared with a job on another crew included', async () => {
+    const porchCrew = (await request(h.app).post('/api/crews').set(owner.auth).send({ name: 'Porch crew', colour: '#553344' }).expect(201)).body.id as string;
+    const neighbour = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Porch roof next door', workTypes: ['roofing'], estimatedWorkingDays: 2 }).expect(201);
+    await request(h.app).post(`/api/jobs/${neighbour.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: neighbour.body.id, crewId: porchCrew, startDate: '2027-04-06' }).expect(201);
+    const book = async (jobIds: string[], accessType: string, states: string[]) => {
+      let booking = (await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds, accessType, supplierId: ids.supplierId }).expect(201)).body as AccessBookingDto;
+      for (const state of states) booking = (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state, version: booking.version }).expect(200)).body as AccessBookingDto;
+      return booking.id;
+    };
+    const shared = await book([ids.jobId, neighbour.body.id], 'scaffold', ['confirmed']);
+    const tower = await book([ids.jobId], 'tower', []);
+    const edge = await book([ids.jobId], 'edge-protection', ['confirmed', 'erected']);
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const preview = (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    const byBooking = (id: string) => preview.accessChanges.find((c) => c.bookingId === id);
+    // Source: gov.uk bank holidays, England and Wales 2027 (Good Friday 26 March, Easter Monday 29 March): the job moves to
+    // 30–31 March, so access goes up on Thursday 25 March; the shared scaffold stays for the porch (6–7 April) until 8 April.
+    expect(byBooking(shared)).toMatchObject({ effect: 'asks-supplier', fromErect: '2027-03-24', fromStrike: '2027-04-08', toErect: '2027-03-25', toStrike: '2027-04-08' });
+    expect(byBooking(tower)).toMatchObject({ effect: 'follows', fromErect: '2027-03-24', fromStrike: '2027-03-31', toErect: '2027-03-25', toStrike: '2027-04-01' });
+    // Erected on 24 March (today): only its strike can move.
+    expect(byBooking(edge)).toMatchObject({ effect: 'asks-supplier', toErect: '2027-03-24', toStrike: '2027-04-01' });
+    expect(preview.accessChanges).toHaveLength(3);
+
+    await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }).expect(200);
+    const after = (await request(h.app).get('/api/access-bookings').query({ jobId: ids.jobId }).set(owner.auth).expect(200)).body as AccessBookingDto[];
+    const made = after.filter((b) => b.state !== 'cancelled').map((b) => ({
+      bookingId: b.id,
+      effect: b.state === 'requested' ? 'follows' : 'asks-supplier',
+      toErect: b.state === 'requested' ? b.requestedErect : b.pendingChange?.newErect,
+      toStrike: b.state === 'requested' ? b.requestedStrike : b.pendingChange?.newStrike,
+    }));
+    const previewed = preview.accessChanges.map((c) => ({ bookingId: c.bookingId, effect: c.effect, toErect: c.toErect, toStrike: c.toStrike }));
+    const order = (rows: Array<{ bookingId: string }>) => [...rows].sort((a, b) => a.bookingId.localeCompare(b.bookingId));
+    expect(order(made)).toEqual(order(previewed));
+    const requests = (await h.dataSource.query(`SELECT booking_id FROM access_change_request WHERE status = 'pending'`)) as Array<{ booking_id: string }>;
+    expect(requests.map((r) => r.booking_id).sort()).toEqual([shared, edge].sort());
   });
 
   it('asks a confirmed scaffold supplier once when a re-plan moves the job', async () => {

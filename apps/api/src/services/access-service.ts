@@ -70,7 +70,7 @@ const EXPOSED_ACTIVITY: Record<AccessType, Activity> = {
 /** Stored forecasts reach about 8 days ahead; a forecast gale inside them brings the next inspection forward. */
 const FORECAST_AHEAD_DAYS = 9;
 
-interface Window {
+export interface Window {
   erect: string;
   strike: string;
 }
@@ -354,39 +354,27 @@ export class AccessService {
   }
 
   /**
-   * Called inside a schedule change's transaction. A booking still only requested follows the jobs' new
-   * window; a confirmed or erected one gets one change request for the supplier, mailed after commit.
+   * Called inside a schedule change's transaction, once the moved jobs' days are saved. A booking still only
+   * requested follows the jobs' new window; a confirmed or erected one gets one change request for the supplier,
+   * mailed after commit.
    */
   async onScheduleChanged(manager: EntityManager, actor: Actor, jobIds: string[], calendars: FirmCalendars): Promise<AfterCommit[]> {
     const scope = new FirmScope(manager, actor.firmId);
-    const bookings = await scope
-      .query(AccessBooking, 'b')
-      .andWhere('b.job_ids && :jobIds::uuid[]', { jobIds })
-      .andWhere('b.state IN (:...states)', { states: [...LIVE_STATES] })
-      .setLock('pessimistic_write')
-      .getMany();
     const afterCommit: AfterCommit[] = [];
-    for (const booking of bookings) {
-      const needed = await this.neededWindow(manager, actor.firmId, booking.jobIds, booking.curingDays, calendars);
-      if (!needed) continue;
-      if (booking.state === 'requested') {
-        if (booking.requestedErect === needed.erect && booking.requestedStrike === needed.strike) continue;
+    for (const { booking, effect, wanted } of await this.accessChangesFor(manager, actor.firmId, jobIds, calendars, new Map(), true)) {
+      if (effect === 'follows') {
         const before = { requestedErect: booking.requestedErect, requestedStrike: booking.requestedStrike };
-        booking.requestedErect = needed.erect;
-        booking.requestedStrike = needed.strike;
+        booking.requestedErect = wanted.erect;
+        booking.requestedStrike = wanted.strike;
         await manager.save(booking);
-        await recordAudit(manager, actor, { entity: 'access-booking', entityId: booking.id, action: 'followed-job', before, after: needed });
+        await recordAudit(manager, actor, { entity: 'access-booking', entityId: booking.id, action: 'followed-job', before, after: wanted });
         afterCommit.push(async () => this.publish(actor.firmId, 'access:updated', booking));
         continue;
       }
-      // Once up, the erect date is history: only the strike can move.
-      const wanted: Window = booking.state === 'erected' ? { erect: booking.erectedOn ?? booking.confirmedErect!, strike: needed.strike } : needed;
-      if (booking.confirmedErect === wanted.erect && booking.confirmedStrike === wanted.strike) {
+      if (effect === 'settles') {
         await this.supersedePending(manager, booking.id);
         continue;
       }
-      const pending = await manager.findOneBy(AccessChangeRequest, { bookingId: booking.id, status: 'pending' });
-      if (pending && pending.newErect === wanted.erect && pending.newStrike === wanted.strike) continue;
       // An earlier counter-proposal is settled by this newer request, so it must not show again once this one is answered.
       await this.closeOpenRequests(manager, booking.id, 'superseded');
       const token = newOpaqueToken();
@@ -403,6 +391,50 @@ export class AccessService {
       });
     }
     return afterCommit;
+  }
+
+  /**
+   * What a change to these jobs' days does to their live bookings. Each booking's window is worked out over the days
+   * of every job on it: `projected` gives the days a re-plan would move jobs to, the board gives the rest. The re-plan
+   * preview and the commit (through onScheduleChanged, after the moves are saved) both decide here, so they agree.
+   */
+  async accessChangesFor(
+    manager: EntityManager, firmId: string, jobIds: string[], calendars: FirmCalendars,
+    projected: ReadonlyMap<string, readonly string[]> = new Map(), lock = false,
+  ): Promise<AccessChangePlan[]> {
+    if (jobIds.length === 0) return [];
+    const query = new FirmScope(manager, firmId)
+      .query(AccessBooking, 'b')
+      .andWhere('b.job_ids && :jobIds::uuid[]', { jobIds: [...new Set(jobIds)] })
+      .andWhere('b.state IN (:...states)', { states: [...LIVE_STATES] })
+      .orderBy('b.createdAt', 'ASC')
+      .addOrderBy('b.id', 'ASC');
+    if (lock) query.setLock('pessimistic_write');
+    const bookings = await query.getMany();
+    if (bookings.length === 0) return [];
+    const [daysOf, pending] = await queriesOf(manager, [
+      () => this.jobDays(manager, firmId, bookings.flatMap((b) => b.jobIds), projected),
+      () => manager.find(AccessChangeRequest, { where: { firmId, bookingId: In(bookings.map((b) => b.id)), status: 'pending' } }),
+    ] as const);
+    const plans: AccessChangePlan[] = [];
+    for (const booking of bookings) {
+      const needed = windowOver(booking.jobIds.flatMap((id) => daysOf.get(id) ?? []), booking.curingDays, calendars);
+      if (!needed) continue;
+      if (booking.state === 'requested') {
+        if (booking.requestedErect !== needed.erect || booking.requestedStrike !== needed.strike) plans.push({ booking, effect: 'follows', wanted: needed });
+        continue;
+      }
+      // Once up, the erect date is history: only the strike can move.
+      const wanted: Window = booking.state === 'erected' ? { erect: booking.erectedOn ?? booking.confirmedErect!, strike: needed.strike } : needed;
+      if (booking.confirmedErect === wanted.erect && booking.confirmedStrike === wanted.strike) {
+        plans.push({ booking, effect: 'settles', wanted });
+        continue;
+      }
+      const asked = pending.find((request) => request.bookingId === booking.id);
+      if (asked && asked.newErect === wanted.erect && asked.newStrike === wanted.strike) continue;
+      plans.push({ booking, effect: 'asks-supplier', wanted });
+    }
+    return plans;
   }
 
   /** What a supplier sees behind the link in their e-mail; no sign-in, only this one request. */
@@ -527,11 +559,17 @@ export class AccessService {
   }
 
   private async neededWindow(manager: EntityManager, firmId: string, jobIds: string[], curingDays: number, calendars: FirmCalendars): Promise<Window | null> {
-    const assignments = await new FirmScope(manager, firmId).find(Assignment, { where: { jobId: In(jobIds) } });
-    const days = [...new Set(assignments.flatMap((a) => a.days))].sort();
-    if (days.length === 0) return null;
-    const window = accessWindowFor(days, { calendar: calendars.firmCalendar, erectLeadWorkingDays: 1, curingDays });
-    return { erect: window.erectBy, strike: window.strikeFrom };
+    const daysOf = await this.jobDays(manager, firmId, jobIds);
+    return windowOver(jobIds.flatMap((id) => daysOf.get(id) ?? []), curingDays, calendars);
+  }
+
+  /** Each job's days on the board, or where `projected` puts it. */
+  private async jobDays(manager: EntityManager, firmId: string, jobIds: string[], projected: ReadonlyMap<string, readonly string[]> = new Map()): Promise<Map<string, readonly string[]>> {
+    const unplanned = [...new Set(jobIds)].filter((id) => !projected.has(id));
+    const assignments = unplanned.length
+      ? await new FirmScope(manager, firmId).find(Assignment, { where: { jobId: In(unplanned) }, select: { id: true, firmId: true, jobId: true, days: true } })
+      : [];
+    return new Map<string, readonly string[]>([...assignments.map((a) => [a.jobId, a.days] as const), ...projected]);
   }
 
   /** Closes the requests still waiting on the supplier or showing their counter-proposal. */
@@ -741,6 +779,20 @@ export class AccessService {
   private publish(firmId: string, type: string, booking: AccessBooking): void {
     this.events.publish({ firmId, type, id: booking.id, version: booking.version });
   }
+}
+
+/** What a schedule change does to one live booking: a requested one follows, a confirmed or erected one asks the supplier, or settles back on its agreed dates. */
+export interface AccessChangePlan {
+  booking: AccessBooking;
+  effect: 'follows' | 'asks-supplier' | 'settles';
+  wanted: Window;
+}
+
+/** The window a booking needs over its jobs' days: up a working day before the first, down the working day after the last plus any curing. */
+function windowOver(days: readonly string[], curingDays: number, calendars: FirmCalendars): Window | null {
+  if (days.length === 0) return null;
+  const window = accessWindowFor([...new Set(days)].sort(), { calendar: calendars.firmCalendar, erectLeadWorkingDays: 1, curingDays });
+  return { erect: window.erectBy, strike: window.strikeFrom };
 }
 
 /** The hire as it stands: the days it actually went up and came down win over the agreed ones, which win over the asked. */

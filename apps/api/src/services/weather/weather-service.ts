@@ -1,6 +1,5 @@
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import {
-  accessWindowFor,
   activitiesForJob,
   assessDay,
   daylight,
@@ -24,7 +23,7 @@ import { errors } from '../../errors.js';
 import type { Clock } from '../../lib/clock.js';
 import type { EventBus } from '../../lib/event-bus.js';
 import { todayIn } from '../../lib/today.js';
-import type { AfterCommit } from '../access-service.js';
+import type { AccessService, AfterCommit } from '../access-service.js';
 import { requirePermission, type Actor } from '../actor.js';
 import { recordAudit } from '../audit-service.js';
 import { escapeHtml } from '../auth-service.js';
@@ -39,6 +38,7 @@ const HOUR = 3_600_000;
 
 export class WeatherService {
   private schedule?: ScheduleService;
+  private access?: AccessService;
 
   constructor(
     private readonly dataSource: DataSource,
@@ -49,8 +49,9 @@ export class WeatherService {
   ) {}
 
   /** The schedule service and this one use each other; the app wires the loop once at start-up. */
-  attachSchedule(schedule: ScheduleService): void {
+  attachSchedule(schedule: ScheduleService, access?: AccessService): void {
     this.schedule = schedule;
+    this.access = access;
   }
 
   /**
@@ -331,22 +332,16 @@ export class WeatherService {
   private async buildPreview(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues): Promise<ReplanPreviewDto> {
     const { plan, jobs, calendars } = await this.plan(manager, actor, hold, input);
     const clients = await manager.find(Client, { where: { id: In(jobs.map((j) => j.clientId)) } });
-    const bookings = await new FirmScope(manager, actor.firmId)
-      .query(AccessBooking, 'b')
-      .andWhere('b.job_ids && :jobIds::uuid[]', { jobIds: plan.moves.map((m) => m.jobId).concat(['00000000-0000-0000-0000-000000000000']) })
-      .andWhere("b.state IN ('requested', 'confirmed', 'erected')")
-      .getMany();
-    const accessChanges = bookings.flatMap((booking) => {
-      const days = booking.jobIds.flatMap((jobId) => plan.moves.find((m) => m.jobId === jobId)?.toDays ?? []).sort();
-      if (days.length === 0) return [];
-      const window = accessWindowFor(days, { calendar: calendars.firmCalendar, erectLeadWorkingDays: 1, curingDays: booking.curingDays });
-      const fromErect = booking.confirmedErect ?? booking.requestedErect;
-      const fromStrike = booking.confirmedStrike ?? booking.requestedStrike;
-      if (fromErect === window.erectBy && fromStrike === window.strikeFrom) return [];
+    const projected = new Map(plan.moves.map((m) => [m.jobId, m.toDays]));
+    const planned = this.access ? await this.access.accessChangesFor(manager, actor.firmId, [...projected.keys()], calendars, projected) : [];
+    const accessChanges = planned.flatMap(({ booking, effect, wanted }) => {
+      if (effect === 'settles') return [];
+      const isRequested = booking.state === 'requested';
       return [{
-        bookingId: booking.id, accessType: booking.accessType, state: booking.state, fromErect, fromStrike,
-        toErect: booking.state === 'erected' ? booking.erectedOn ?? window.erectBy : window.erectBy, toStrike: window.strikeFrom,
-        effect: booking.state === 'requested' ? ('follows' as const) : ('asks-supplier' as const),
+        bookingId: booking.id, accessType: booking.accessType, state: booking.state,
+        fromErect: isRequested ? booking.requestedErect : booking.confirmedErect ?? booking.requestedErect,
+        fromStrike: isRequested ? booking.requestedStrike : booking.confirmedStrike ?? booking.requestedStrike,
+        toErect: wanted.erect, toStrike: wanted.strike, effect,
       }];
     });
     const warnings: string[] = [];
