@@ -1,5 +1,5 @@
 import argon2 from 'argon2';
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { addDays, isoWeekday, type AccessNeed, type Role, type TimeOffValues, type WorkType } from '@hodboard/shared';
 import { EventBus } from '../lib/event-bus.js';
 import { seedDemoQuotes } from './demo-quotes.js';
@@ -80,7 +80,31 @@ export async function seedDemoFirm(dataSource: DataSource, today: string = today
   const owner = DEMO_SIGN_INS[0]!;
   if (await dataSource.manager.existsBy(User, { email: owner.email })) return { created: false };
   const passwordHash = await argon2.hash(DEMO_PASSWORD, { type: argon2.argon2id });
+  // All or nothing: a seed that fails part-way (or a second one racing it) leaves no half-built firm behind that a
+  // later run would take for a finished one.
+  return dataSource.transaction(async (manager) => {
+    if (await manager.existsBy(User, { email: owner.email })) return { created: false };
+    await seedInto(withinTransaction(dataSource, manager), passwordHash, today);
+    return { created: true };
+  });
+}
 
+/**
+ * The data source as the services see it, bound to one open transaction: their own transactions become savepoints
+ * inside it and their reads see its uncommitted rows.
+ */
+function withinTransaction(dataSource: DataSource, manager: EntityManager): DataSource {
+  return Object.create(dataSource, {
+    manager: { value: manager },
+    transaction: { value: manager.transaction.bind(manager) },
+    query: { value: manager.query.bind(manager) },
+    createQueryBuilder: { value: manager.createQueryBuilder.bind(manager) },
+    getRepository: { value: manager.getRepository.bind(manager) },
+  }) as DataSource;
+}
+
+async function seedInto(dataSource: DataSource, passwordHash: string, today: string): Promise<void> {
+  const owner = DEMO_SIGN_INS[0]!;
   const base = await dataSource.transaction(async (manager) => {
     const firm = await manager.save(manager.create(Firm, {
       name: 'Brindle & Frayne Masonry',
@@ -154,7 +178,6 @@ export async function seedDemoFirm(dataSource: DataSource, today: string = today
   await schedule.place(actor, { jobId: base.jobs[33]!.id, crewId: base.crews[2]!.id, startDate: addDays(monday, 15), confirmDoubleBooking: true });
   await seedSiteNotes(dataSource, base.firm.id, base.jobs, base.members);
   await seedDemoQuotes(dataSource, actor, { sent: base.jobs[36]!, draft: base.jobs[38]! });
-  return { created: true };
 }
 
 /** A few notes on the Stack crew's first jobs, as a crew's phone would have left them. */
