@@ -5,6 +5,7 @@ export const SOURCES = {
   en280: 'BS EN 280:2001+A2:2009 MEWP rated wind speed 12.5 m/s (secondary copy: IPAF FAQ)',
   pasmaTower: 'PASMA FAQ for EN 1004 towers: stop and dismantle at an average of 17 mph (pasma.co.uk/faqs/safety)',
   hseRoofBalance: 'HSE construction FAQ, roof work: winds over 23 mph (force 5) affect balance (secondary copy)',
+  scaffoldEdgeBalance: 'Common practice, no source: the HSE roof-work figure (winds over 23 mph, force 5, affect balance) applied to scaffold and roof edges; HSE gives it for roof work only',
   nfrcRoof: 'NFRC "Roofing and cladding in windy conditions": slates, tiles, felt stop at mean 23 mph or gusts 35 mph (secondary copy)',
   nfrcSheets: 'NFRC "Roofing and cladding in windy conditions": sheets over 5 m stop at mean 17 mph or gusts 26 mph (secondary copy)',
   scaffoldUse: 'Scaffold designer guidance: usual maximum 18 m/s for using a scaffold (weak secondary copy); no NASC/TG20 figure found',

@@ -96,15 +96,24 @@ describe('wind limits', () => {
   it.each([
     ['roof-work', 'wind.roof.balance', 23, 'none'], // Source: HSE roof-work FAQ, "in excess of 23 mph (force 5)" affects balance
     ['roof-work', 'wind.roof.balance', 23.01, 'caution'], // Source: HSE roof-work FAQ, "in excess of 23 mph (force 5)" affects balance
-    ['work-at-height', 'wind.scaffold-use.balance', 22.99, 'none'], // Source: HSE roof-work FAQ 23 mph, applied to edges (common practice)
-    ['work-at-height', 'wind.scaffold-use.balance', 23, 'none'], // Source: HSE roof-work FAQ 23 mph, strictly "in excess of"
-    ['work-at-height', 'wind.scaffold-use.balance', 23.01, 'caution'], // Source: HSE roof-work FAQ 23 mph, applied to edges (common practice)
+    ['work-at-height', 'wind.scaffold-use.balance', 22.99, 'none'], // Source: common practice, no source — HSE's roof-work 23 mph figure applied to scaffold edges
+    ['work-at-height', 'wind.scaffold-use.balance', 23, 'none'], // Source: common practice, no source — HSE's roof-work 23 mph figure applied to scaffold edges, strictly "in excess of"
+    ['work-at-height', 'wind.scaffold-use.balance', 23.01, 'caution'], // Source: common practice, no source — HSE's roof-work 23 mph figure applied to scaffold edges
   ])('%s: the balance caution (%s) at a mean of %f mph → %s', (activity, ruleId, mph, expected) => {
     // Lift the NFRC stop so the HSE caution can be seen on its own.
     const s = resolveRuleSettings({ roofMeanStopMs: 20 });
     const r = reason(windDay(activity as Activity, mphToMs(mph), mphToMs(mph), s), ruleId);
     if (expected === 'none') expect(r).toBeUndefined();
     else expect(r?.verdict).toBe('caution');
+  });
+
+  it('labels the scaffold-edge balance caution as common practice, not as an HSE rule', () => {
+    // Source: HSE construction FAQ gives the 23 mph balance figure for roof work only (secondary copy, trade-rules §1b); using it at scaffold edges is common practice, no source
+    const s = resolveRuleSettings({ roofMeanStopMs: 20 });
+    const edge = reason(windDay('work-at-height', mphToMs(24), mphToMs(24), s), 'wind.scaffold-use.balance');
+    expect(edge?.source).toMatch(/^Common practice, no source: the HSE roof-work figure .* applied to scaffold and roof edges/);
+    expect(edge?.source).not.toBe(reason(windDay('roof-work', mphToMs(24), mphToMs(24), s), 'wind.roof.balance')?.source);
+    expect(reason(windDay('roof-work', mphToMs(24), mphToMs(24), s), 'wind.roof.balance')?.source).toMatch(/^HSE construction FAQ, roof work/);
   });
 
   it('judges each limit on its own statistic: a strong gust does not trip a mean limit', () => {

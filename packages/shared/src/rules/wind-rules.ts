@@ -78,7 +78,7 @@ export function windLimitsFor(activity: Activity, s: RuleSettings): readonly Win
     case 'work-at-height':
       return [
         limit('wind.scaffold-use.gust', 'gust', s.scaffoldUseGustStopMs, r, 'the firm’s limit for working from a scaffold or roof edge', HARM.scaffoldUse, 'Come down and clear loose materials from the lifts', SOURCES.scaffoldUse, true),
-        balanceCaution('wind.scaffold-use.balance', s.scaffoldUseBalanceMeanCautionMs, 'the wind that affects a person’s balance at an edge', HARM.scaffoldEdge, SOURCES.hseRoofBalance, true),
+        balanceCaution('wind.scaffold-use.balance', s.scaffoldUseBalanceMeanCautionMs, 'the wind that affects a person’s balance at an edge', HARM.scaffoldEdge, SOURCES.scaffoldEdgeBalance, true),
       ];
     case 'scaffold-erection':
       return [

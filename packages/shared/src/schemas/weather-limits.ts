@@ -43,7 +43,7 @@ export const weatherLimitFields: Record<NumericLimit, WeatherLimitField> = {
   sheetMeanStopMs: wind('Sheets over 5 m and large boards: stop at a mean wind of', SOURCES.nfrcSheets),
   sheetGustStopMs: wind('Sheets over 5 m and large boards: stop at gusts of', SOURCES.nfrcSheets),
   scaffoldUseGustStopMs: wind('Working from a scaffold or roof edge: stop at gusts of', SOURCES.scaffoldUse),
-  scaffoldUseBalanceMeanCautionMs: wind('Working at an edge: take care above a mean wind of', `${SOURCES.hseRoofBalance}; applied to edges, common practice, no source`),
+  scaffoldUseBalanceMeanCautionMs: wind('Working at an edge: take care above a mean wind of', SOURCES.scaffoldEdgeBalance),
   scaffoldErectionMeanStopMs: wind('Putting up or striking scaffold: stop at a mean wind of', SOURCES.scaffoldErection),
   scaffoldErectionGustStopMs: wind('Putting up or striking scaffold: stop at gusts of', SOURCES.scaffoldErection),
   windCautionRatio: { group: 'wind', label: 'Take care from this share of each wind stop limit', unit: '%', min: 0.5, max: 1, source: 'Common practice, no source' },
