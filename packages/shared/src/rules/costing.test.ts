@@ -54,6 +54,17 @@ describe('priceJob', () => {
     });
   });
 
+  it('charges travel on its own days when given, and the running costs still on the days on site', () => {
+    // Source: worked by hand — travel 1850 × 5 = 9250 in place of 1850 × 3.5 = 6475; running costs stay 5667.
+    const p = priceJob({ ...wallJob, travelDays: 5 });
+    const line = (kind: string) => p.lines.find((l) => l.kind === kind)?.pence;
+    expect(line('travel')).toBe(9_250);
+    expect(line('running-cost')).toBe(5_667);
+    expect(p.totals.costPence).toBe(270_686 - 6_475 + 9_250);
+    expect(priceJob({ ...wallJob, travelDays: 0 }).lines.some((l) => l.kind === 'travel')).toBe(false);
+    expect(priceJob({ ...wallJob, travelDays: 3.5 })).toEqual(priceJob(wallJob));
+  });
+
   it('charges no VAT when the firm is not registered', () => {
     const p = priceJob({ ...wallJob, vat: { registered: false, ratePct: 20 } });
     expect(p.totals.vatPence).toBe(0);

@@ -31,8 +31,10 @@ export const priceJobInputSchema = z.object({
       }),
     )
     .max(100),
-  /** Working days on site: the running cost and travel are charged per day. */
+  /** Working days on site: the running cost is charged per day, and travel too unless travelDays is given. */
   jobDays: decimal(2, 10_000),
+  /** Days travelled to the site, when they differ from the days on site (a survey visit, deliveries, snagging). */
+  travelDays: decimal(2, 10_000).optional(),
   runningCosts: z.object({
     monthly: z.array(z.object({ description: z.string().min(1).max(200), pence })).max(100),
     /** Working days a month the fixed costs are spread over. */
@@ -110,8 +112,9 @@ export function priceJob(input: PriceJobInput): PriceBreakdown {
     const den = scaled(v.runningCosts.workingDaysPerMonth, 2);
     cost.push({ kind: 'running-cost', description: 'Running costs for the days on site', pence: roundHalfUp(num, den) });
   }
-  if (v.travelPerDayPence > 0 && v.jobDays > 0) {
-    cost.push({ kind: 'travel', description: 'Travel', pence: roundHalfUp(BigInt(v.travelPerDayPence) * scaled(v.jobDays, 2), 100n) });
+  const travelDays = v.travelDays ?? v.jobDays;
+  if (v.travelPerDayPence > 0 && travelDays > 0) {
+    cost.push({ kind: 'travel', description: 'Travel', pence: roundHalfUp(BigInt(v.travelPerDayPence) * scaled(travelDays, 2), 100n) });
   }
   const costPence = sum(cost);
   const margin: PriceLine = { kind: 'margin', description: `Margin ${v.marginPct} %`, pence: pct(costPence, v.marginPct) };

@@ -56,6 +56,35 @@ describe('actualCostPence', () => {
   });
 });
 
+describe('travel days', () => {
+  it('charges one trip a day on site when the quote gives no travel days', () => {
+    expect(content.travelDays).toBeNull();
+    // Source: worked by hand — 3 days on site × 1,500 a day.
+    expect(priceQuote(content, settings).lines.find((l) => l.kind === 'travel')?.pence).toBe(4_500);
+  });
+
+  it('charges the travel days the quote gives, and keeps the running costs on the days on site', () => {
+    // Source: worked by hand — a survey visit and a delivery run on top of 3 days on site: 5 × 1,500 = 7,500;
+    // running costs 3 × 1,200 = 3,600 as before.
+    const withTrips = quoteContentSchema.parse({ ...content, travelDays: 5 });
+    const lines = priceQuote(withTrips, settings).lines;
+    expect(lines.find((l) => l.kind === 'travel')?.pence).toBe(7_500);
+    expect(lines.find((l) => l.kind === 'running-cost')?.pence).toBe(3_600);
+  });
+
+  it('carries the extra trips into the actual cost, and a lost day still costs its trip', () => {
+    const withTrips = quoteContentSchema.parse({ ...content, travelDays: 5 });
+    const plain = actualCostPence(content, settings, { days: 3, weatherDaysLost: 1, extraAccessPence: 0, extraMaterialsPence: 0 });
+    // Source: worked by hand — the same job with two more trips (2 × 1,500) priced: 3 days + 1 lost + 2 trips = 6 trips.
+    expect(actualCostPence(withTrips, settings, { days: 3, weatherDaysLost: 1, extraAccessPence: 0, extraMaterialsPence: 0 })).toBe(plain + 3_000);
+  });
+
+  it('refuses negative travel days or more than two decimal places', () => {
+    expect(quoteContentSchema.safeParse({ ...content, travelDays: -1 }).success).toBe(false);
+    expect(quoteContentSchema.safeParse({ ...content, travelDays: 1.234 }).success).toBe(false);
+  });
+});
+
 describe('quotedHireWeeks', () => {
   const hire = quoteContentSchema.parse({
     ...content,

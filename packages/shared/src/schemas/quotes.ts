@@ -131,8 +131,10 @@ export const quoteContentSchema = z.object({
   exclusions: optionalText(4000),
   materials: z.array(quoteMaterialLineSchema).max(200, { message: 'At most 200 material lines' }),
   labour: z.array(quoteLabourLineSchema).max(50, { message: 'At most 50 labour lines' }),
-  /** Working days on site: running costs and travel accrue per day. */
+  /** Working days on site: running costs accrue per day, and travel too unless travelDays says otherwise. */
   jobDays: decimal(2, 0.5, 1000, 'the days on site'),
+  /** Days someone drives to the site, survey and delivery trips included; empty means one trip a day on site. */
+  travelDays: decimal(2, 0, 1000, 'the travel days').nullable().default(null),
   /** One way, from the yard to the site. */
   distanceMiles: decimal(1, 0, 500, 'the distance'),
   accessHire: z.array(quoteAccessLineSchema).max(20, { message: 'At most 20 hire lines' }),
@@ -397,6 +399,7 @@ export function quotePriceInput(content: QuoteContent, settings: CostingSettings
     })),
     labour: content.labour.map((l) => ({ description: l.description, people: l.people, days: l.days, dayRatePence: l.dayRatePence })),
     jobDays: content.jobDays,
+    travelDays: quotedTravelDays(content),
     runningCosts: {
       monthly: settings.runningCosts.map((c) => ({ description: c.description, pence: c.monthlyPence })),
       workingDaysPerMonth: settings.workingDaysPerMonth,
@@ -409,6 +412,11 @@ export function quotePriceInput(content: QuoteContent, settings: CostingSettings
     }),
     vat: { registered: settings.vatRegistered, ratePct: settings.vatRatePct },
   };
+}
+
+/** Travel days as priced: the quote's own, else one trip a day on site. Content saved before the field counts as empty. */
+export function quotedTravelDays(content: Pick<QuoteContent, 'jobDays' | 'travelDays'>): number {
+  return content.travelDays ?? content.jobDays;
 }
 
 export function priceQuote(content: QuoteContent, settings: CostingSettings): PriceBreakdown {
@@ -460,15 +468,19 @@ export interface ActualFigures {
 /**
  * What the job cost the firm once done: labour scaled to the days worked, running costs and travel for every
  * day on site including rained-off ones (the trip and the overheads are spent either way — common practice,
- * no source), the hire as priced plus any extra weeks, and materials added.
+ * no source), the hire as priced plus any extra weeks, and materials added. Trips priced beyond the days on
+ * site (or fewer than them) are taken to have happened as priced.
  */
 export function actualCostPence(content: QuoteContent, settings: CostingSettings, actual: ActualFigures): number {
   const input = quotePriceInput(content, settings);
   const ratio = content.jobDays > 0 ? actual.days / content.jobDays : 1;
+  const daysOnSite = actual.days + actual.weatherDaysLost;
+  const otherTrips = quotedTravelDays(content) - content.jobDays;
   const priced = priceJob({
     ...input,
     labour: input.labour.map((l) => ({ ...l, days: Math.round(l.days * ratio * 100) / 100 })),
-    jobDays: Math.round((actual.days + actual.weatherDaysLost) * 100) / 100,
+    jobDays: Math.round(daysOnSite * 100) / 100,
+    travelDays: Math.max(0, Math.round((daysOnSite + otherTrips) * 100) / 100),
     marginPct: 0,
     accessHire: [],
     vat: { registered: false, ratePct: 0 },
