@@ -80,6 +80,28 @@ describe('pricing a quote', () => {
     expect(quote.reference).toMatch(/^Q\d{4}$/);
   });
 
+  it('charges travel on the travel days given, keeps running costs on the days on site, and refuses bad travel days', async () => {
+    const { jobId } = await enquiry(h, owner);
+    const quote = await draft(jobId, { ...gardenWallContent, travelDays: 5 });
+    const line = (kind: string) => quote.current.breakdown.lines.find((l) => l.kind === kind)?.pence;
+    // Worked by hand: a survey visit and a delivery run on top of 3 days on site: travel 1,500 × 5 = 7,500;
+    // running costs stay 25,200 × 3 / 21 = 3,600; cost 175,656 + 3,000 = 178,656.
+    expect(line('travel')).toBe(7_500);
+    expect(line('running-cost')).toBe(3_600);
+    expect(quote.current.breakdown.totals.costPence).toBe(178_656);
+    expect(quote.current.content.travelDays).toBe(5);
+
+    const { jobId: other } = await enquiry(h, owner, 'sam.quill@example.org');
+    const plain = await draft(other);
+    expect(plain.current.content.travelDays).toBeNull();
+    expect(plain.current.breakdown.lines.find((l) => l.kind === 'travel')?.pence).toBe(4_500);
+
+    const before = await countRows(h.dataSource);
+    const res = await request(h.app).put(`/api/quotes/${plain.id}`).set(owner.auth).send({ version: plain.version, content: { ...gardenWallContent, travelDays: -1 } }).expect(400);
+    expect(res.body.errors).toEqual([expect.objectContaining({ path: 'content.travelDays' })]);
+    expect(await countRows(h.dataSource)).toEqual(before);
+  });
+
   it('charges no VAT for a firm that is not VAT registered', async () => {
     await setUpCosting(h, owner, { vatRegistered: false });
     const { jobId } = await enquiry(h, owner);
