@@ -77,6 +77,17 @@ describe('QuoteBreakdown', () => {
     expect(shown(wrapper, 'vat')).toBe(vat);
   });
 
+  it('prices travel on the travel days when the quote gives them, as the server does', () => {
+    const withTrips = { ...content, travelDays: 5 };
+    const wrapper = mount(QuoteBreakdown, { props: { content: withTrips, settings } });
+    const server = priceJob(quotePriceInput(quoteContentSchema.parse(withTrips), settings));
+    expect(shown(wrapper, 'gross')).toBe(formatPence(server.totals.grossPence));
+    // Worked by hand: two more trips at 1,500 → cost 178,656, margin 26,798.4 → 26,798, net 205,454.
+    expect(wrapper.get('[data-kind="travel"]').text()).toContain('£75.00');
+    expect(shown(wrapper, 'net')).toBe('£2,054.54');
+    expect(wrapper.text()).toContain('over 5 travel days');
+  });
+
   it('adds no VAT for a firm that is not VAT registered', () => {
     const wrapper = mount(QuoteBreakdown, { props: { content, settings: { ...settings, vatRegistered: false } } });
     expect(wrapper.find('[data-testid="vat"]').exists()).toBe(false);
