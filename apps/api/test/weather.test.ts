@@ -249,6 +249,29 @@ describe('a stand-down in the middle of a job', () => {
     const history = (await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200)).body as Array<{ action: string; before: { crewId?: string; days?: string[] } | null }>;
     expect(history.find((e) => e.action === 'replanned' && e.before?.days)?.before).toEqual({ crewId: ids.crewId, days: week });
   });
+
+  it("plans the move onto the other crew's bookings: after the job it has begun, rippling its later job, all in the preview", async () => {
+    const ridge = await newCrew('Ridge crew');
+    const underWay = await placeJob('Chimney stack', ridge, '2027-05-25', 2);
+    const booked = await placeJob('Lintel over the door', ridge, '2027-05-28', 1);
+    const clear = await placeJob('Soakaway', ridge, '2027-06-10', 1);
+    const hold = await standDown();
+    const body = { mode: 'move-crew', crewId: ridge, startDate: '2027-05-26' };
+    const preview = (await replan('preview', hold, body).expect(200)).body as ReplanPreviewDto;
+    // Ridge crew is on the chimney until Wednesday 26 May, so it takes the three days left from Thursday 27 May, over the
+    // Spring bank holiday (Monday 31 May), and its lintel job moves to Wednesday 2 June.
+    expect(preview.moves.map((m) => [m.jobId, m.fromCrewId, m.toCrewId, m.toDays])).toEqual([
+      [ids.jobId, ids.crewId, ridge, ['2027-05-27', '2027-05-28', '2027-06-01']],
+      [booked, ridge, ridge, ['2027-06-02']],
+    ]);
+    expect(preview.warnings.join(' ')).toMatch(/Ridge crew is still on .* on Wed 26 May, so they start on Thu 27 May/);
+    const committed = (await replan('commit', hold, body).expect(200)).body as ReplanPreviewDto;
+    expect(committed.moves).toEqual(preview.moves);
+    expect((await placed(ids.jobId)).days).toEqual(['2027-05-27', '2027-05-28', '2027-06-01']);
+    expect((await placed(booked)).days).toEqual(['2027-06-02']);
+    expect((await placed(underWay)).days).toEqual(['2027-05-25', '2027-05-26']);
+    expect((await placed(clear)).days).toEqual(['2027-06-10']);
+  });
 });
 
 describe('the hosted-service adapters against the local fake', () => {

@@ -48,7 +48,7 @@ describe('planReplan', () => {
   it('changes nothing when none of the held days are the job\'s', () => {
     const target = span({ assignmentId: 'a', days: ['2027-05-04'] });
     expect(planReplan({ target, heldDates: ['2027-05-07'], mode: 'push', laterOnCrew: [], calendarFor: () => calendar }))
-      .toEqual({ lostWorkingDays: 0, moves: [], workedDays: [] });
+      .toEqual({ lostWorkingDays: 0, moves: [], workedDays: [], requestedStart: null, blockedBy: [] });
   });
 });
 
@@ -104,6 +104,21 @@ describe('planReplan, stood down in the middle of a job', () => {
     expect(plan.moves).toEqual([expect.objectContaining({
       assignmentId: 'a', fromCrewId: 'c1', toCrewId: 'c2', startDate: '2027-05-26', workingDays: 3, toDays: ['2027-05-26', '2027-05-27', '2027-05-28'],
     })]);
+  });
+
+  it("starts after the receiving crew's job already under way and ripples that crew's later jobs over the bank holiday", () => {
+    const underWay = span({ assignmentId: 'x', crewId: 'c2', days: ['2027-05-25', '2027-05-26'] });
+    const booked = span({ assignmentId: 'y', crewId: 'c2', days: ['2027-05-28'] });
+    const clear = span({ assignmentId: 'z', crewId: 'c2', days: ['2027-06-10'] });
+    const plan = planReplan({
+      target, heldDates: held, mode: 'move-crew', toCrewId: 'c2', startDate: '2027-05-26', laterOnCrew: [],
+      onReceivingCrew: [clear, booked, underWay], calendarFor: () => calendar,
+    });
+    expect(plan).toMatchObject({ requestedStart: '2027-05-26', blockedBy: ['x'] });
+    expect(plan.moves.map((m) => [m.assignmentId, m.toCrewId, m.toDays])).toEqual([
+      ['a', 'c2', ['2027-05-27', '2027-05-28', '2027-06-01']],
+      ['y', 'c2', ['2027-06-02']],
+    ]);
   });
 
   it('changes nothing with mode none but still counts the day lost', () => {

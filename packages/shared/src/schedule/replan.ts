@@ -29,6 +29,8 @@ export interface ReplanRequest {
   mode: 'push' | 'push-and-ripple' | 'move-crew' | 'none';
   /** The target crew's later jobs (any order); rippled only in push-and-ripple. */
   laterOnCrew: readonly PlacedSpan[];
+  /** For move-crew: the receiving crew's jobs that end on or after the day asked for (any order). */
+  onReceivingCrew?: readonly PlacedSpan[];
   calendarFor: (crewId: string) => WorkCalendar;
   /** For move-crew. */
   toCrewId?: string;
@@ -43,6 +45,10 @@ export interface ReplanPlan {
    * board with the move and stay in the job's history.
    */
   workedDays: string[];
+  /** For move-crew: the first day the receiving crew could take the job from the day asked for. */
+  requestedStart: string | null;
+  /** For move-crew: the receiving crew's jobs begun before the day asked for that run past it, so the job starts after them. */
+  blockedBy: string[];
 }
 
 /**
@@ -53,7 +59,7 @@ export interface ReplanPlan {
  * - "push-and-ripple" then moves each of the same crew's later jobs just far enough not to overlap the one before, on
  *   that crew's calendar and never before a job's earliest start.
  * - "move-crew" gives another crew what is left of the job (its working days from the first day stood down) from the
- *   day chosen.
+ *   day chosen, after any job that crew has already begun, and ripples that crew's later jobs the same way.
  * Pure: the API previews and commits with the same function.
  */
 export function planReplan(request: ReplanRequest): ReplanPlan {
@@ -61,7 +67,7 @@ export function planReplan(request: ReplanRequest): ReplanPlan {
   const held = new Set(request.heldDates);
   const heldOwn = target.days.filter((day) => held.has(day));
   const lost = heldOwn.length;
-  const plan: ReplanPlan = { lostWorkingDays: lost, moves: [], workedDays: [] };
+  const plan: ReplanPlan = { lostWorkingDays: lost, moves: [], workedDays: [], requestedStart: null, blockedBy: [] };
   if (request.mode === 'none' || lost === 0) return plan;
   const firstHeld = [...heldOwn].sort()[0]!;
 
@@ -71,8 +77,19 @@ export function planReplan(request: ReplanRequest): ReplanPlan {
     plan.workedDays = target.days.filter((day) => day < firstHeld);
     const remaining = target.workingDays - plan.workedDays.length;
     // A job already begun keeps its start; only one not yet begun still waits for its earliest start.
-    const start = atOrAfterWorkingDay(request.startDate ?? firstHeld, calendar, plan.workedDays.length ? null : target.earliestStart);
-    plan.moves.push(move(target, toCrewId, spanFor(start, remaining, calendar), remaining));
+    const requested = atOrAfterWorkingDay(request.startDate ?? firstHeld, calendar, plan.workedDays.length ? null : target.earliestStart);
+    const others = (request.onReceivingCrew ?? []).filter((other) => other.assignmentId !== target.assignmentId && other.crewId === toCrewId);
+    let start = requested;
+    for (const other of others.filter((o) => o.startDate < requested).sort(byStart)) {
+      const last = other.days[other.days.length - 1]!;
+      if (last < start) continue;
+      start = atOrAfterWorkingDay(addWorkingDays(last, 1, calendar), calendar, null);
+      plan.blockedBy.push(other.assignmentId);
+    }
+    plan.requestedStart = requested;
+    const toDays = spanFor(start, remaining, calendar);
+    plan.moves.push(move(target, toCrewId, toDays, remaining));
+    plan.moves.push(...ripple(toDays, others.filter((o) => o.startDate >= requested), calendar));
     return plan;
   }
 

@@ -311,26 +311,34 @@ export class WeatherService {
     const calendars = await loadCalendars(manager, actor.firmId);
     const target = await manager.findOneBy(Assignment, { jobId: hold.jobId, firmId: actor.firmId });
     if (!target) throw errors.conflict('The job stood down is no longer on the board.');
-    if (input.mode === 'move-crew' && input.crewId) await scope.get(Crew, input.crewId, 'Crew');
+    const receivingCrew = input.mode === 'move-crew' && input.crewId ? await scope.get(Crew, input.crewId, 'Crew') : null;
     const later = await scope.query(Assignment, 'a').andWhere('a.crew_id = :crewId AND a.start_date >= :start', { crewId: target.crewId, start: target.startDate }).getMany();
-    const jobs = await scope.find(Job, { where: { id: In([target.jobId, ...later.map((a) => a.jobId)]) } });
+    const firstHeldOwn = target.days.find((day) => hold.dates.includes(day));
+    // The receiving crew's jobs still running on or after the day asked for: one already begun holds the move back,
+    // later ones ripple on after it.
+    const receiving = receivingCrew && firstHeldOwn
+      ? await scope.query(Assignment, 'a')
+        .andWhere('a.crew_id = :crewId AND a.end_date >= :from AND a.job_id <> :jobId', { crewId: receivingCrew.id, from: input.startDate ?? firstHeldOwn, jobId: target.jobId })
+        .getMany()
+      : [];
+    const jobs = await scope.find(Job, { where: { id: In([target.jobId, ...later.map((a) => a.jobId), ...receiving.map((a) => a.jobId)]) } });
     const earliest = new Map(jobs.map((j) => [j.id, j.earliestStart]));
     const toSpan = (a: Assignment): PlacedSpan => ({
       assignmentId: a.id, jobId: a.jobId, crewId: a.crewId, startDate: a.startDate, workingDays: a.workingDays, days: a.days, earliestStart: earliest.get(a.jobId) ?? null,
     });
     const plan = planReplan({
-      target: toSpan(target), heldDates: hold.dates, mode: input.mode, laterOnCrew: later.map(toSpan),
+      target: toSpan(target), heldDates: hold.dates, mode: input.mode, laterOnCrew: later.map(toSpan), onReceivingCrew: receiving.map(toSpan),
       calendarFor: (crewId) => calendars.forCrew(crewId), toCrewId: input.crewId, startDate: input.startDate,
     });
     const firstHeld = target.days[plan.workedDays.length];
     if (input.mode === 'move-crew' && input.startDate && plan.workedDays.length > 0 && firstHeld && input.startDate < firstHeld) {
       throw errors.validation([{ path: 'startDate', message: `The days before ${firstHeld} were worked by the first crew; the new crew starts on or after it` }]);
     }
-    return { plan, spans: new Map([target, ...later].map((a) => [a.id, a])), jobs, calendars };
+    return { plan, spans: new Map([target, ...later, ...receiving].map((a) => [a.id, a])), jobs, calendars, receivingCrew };
   }
 
   private async buildPreview(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues): Promise<ReplanPreviewDto> {
-    const { plan, jobs, calendars } = await this.plan(manager, actor, hold, input);
+    const { plan, jobs, calendars, spans, receivingCrew } = await this.plan(manager, actor, hold, input);
     const clients = await manager.find(Client, { where: { id: In(jobs.map((j) => j.clientId)) } });
     const projected = new Map(plan.moves.map((m) => [m.jobId, m.toDays]));
     const planned = this.access ? await this.access.accessChangesFor(manager, actor.firmId, [...projected.keys()], calendars, projected) : [];
@@ -345,11 +353,9 @@ export class WeatherService {
       }];
     });
     const warnings: string[] = [];
-    if (input.mode === 'move-crew' && plan.moves[0]) {
-      const clash = await new FirmScope(manager, actor.firmId).query(Assignment, 'a')
-        .andWhere('a.crew_id = :crewId AND a.days && :days::date[] AND a.job_id <> :jobId', { crewId: plan.moves[0].toCrewId, days: plan.moves[0].toDays, jobId: hold.jobId })
-        .getCount();
-      if (clash) warnings.push('The other crew already has work on some of these days: committing books them twice.');
+    if (receivingCrew && plan.blockedBy.length > 0 && plan.moves[0]) {
+      const references = plan.blockedBy.map((id) => jobs.find((j) => j.id === spans.get(id)?.jobId)?.reference ?? 'a job');
+      warnings.push(`${receivingCrew.name} is still on ${references.join(', ')} on ${shortDay(plan.requestedStart!)}, so they start on ${shortDay(plan.moves[0].startDate)}.`);
     }
     if (plan.lostWorkingDays === 0) warnings.push('None of the days stood down are working days of this job; nothing moves.');
     return {
@@ -413,6 +419,10 @@ export class WeatherService {
   }
 }
 
+/** A date as the office reads it, e.g. "Wed 26 May". */
+function shortDay(date: string): string {
+  return new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));
+}
 
 function toLimitsDto(row: FirmWeatherLimits | null): WeatherLimitsDto {
   const { settings, overrides, ignored } = firmRuleSettings(row?.overrides);
