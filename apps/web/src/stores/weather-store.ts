@@ -90,6 +90,19 @@ export const useWeatherStore = defineStore('weather', () => {
     return dayVerdicts.value[key(jobId, date)];
   }
 
+  /** The verdicts of these placed jobs' days from `from` to `to`: what a board showing them carries. */
+  function verdictsWithin(assignments: Iterable<{ jobId: string; days: readonly string[] }>, from: string, to: string): DayWeatherDto[] {
+    const list: DayWeatherDto[] = [];
+    for (const assignment of assignments) {
+      for (const date of assignment.days) {
+        if (date < from || date > to) continue;
+        const day = dayVerdicts.value[key(assignment.jobId, date)];
+        if (day) list.push(day);
+      }
+    }
+    return list;
+  }
+
   function holdsForJob(jobId: string): WeatherHoldDto[] {
     return Object.values(holds.value)
       .filter((hold) => hold.jobId === jobId)
@@ -190,6 +203,7 @@ export const useWeatherStore = defineStore('weather', () => {
     error,
     verdictsByJob,
     verdictFor,
+    verdictsWithin,
     holdsForJob,
     loadVerdicts,
     applyScheduleChange,
