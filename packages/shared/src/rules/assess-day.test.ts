@@ -37,6 +37,20 @@ describe('assessDay', () => {
     expect(strict?.reasons.at(-1)).toMatchObject({ ruleId: 'day.usable-hours', threshold: 5, observed: 4 });
   });
 
+  it.each([
+    ['2026-03-02T07:59:24Z', 2.01, 'caution'], // Source: minimum usable hours 2 h, common practice, no source — just above
+    ['2026-03-02T08:00:00Z', 2, 'caution'], // Source: minimum usable hours 2 h, common practice, no source — at the limit, the day can start
+    ['2026-03-02T08:00:36Z', 1.99, 'stop'], // Source: minimum usable hours 2 h, common practice, no source — just below
+  ])('with the forecast ending at 10:00 and the window from %s, %d usable h → %s', (start, usable, expected) => {
+    // Ten forecast hours from midnight: the window's usable hours end at 10:00, the rest is not forecast (a caution).
+    const a = assessDay({ activities: ['mewp'], forecast: hourlyForecast(DAY, 10), window: { start, end: WINDOW.end } }).activities[0];
+    expect(a?.usableHours).toBe(usable);
+    expect(a?.verdict).toBe(expected);
+    const short = a?.reasons.find((r) => r.ruleId === 'day.usable-hours');
+    if (expected === 'stop') expect(short).toMatchObject({ verdict: 'stop', threshold: 2, observed: 1.99 });
+    else expect(short).toBeUndefined();
+  });
+
   it('stops fresh mortar work when rain stops part of the day, though enough dry hours are left to start', () => {
     // Source: NBS F10/185 cover the work during rain (secondary copy); 0.5 mm/h at 50 % stops fresh work, common practice, no source
     const forecast = hourlyForecast(DAY, FULL_HOURS, (h) => (h >= 9 && h < 15 ? { precipMm: 2.5, precipProbability: 0.85 } : {}));

@@ -134,6 +134,7 @@ describe('UK cold weather for mortar', () => {
   });
 
   it.each([
+    [29.99, 'none'], // Source: NHBC Standards 2022 §6.1.20, concern above 30 °C
     [30, 'none'], // Source: NHBC Standards 2022 §6.1.20, concern above 30 °C
     [30.01, 'caution'], // Source: NHBC Standards 2022 §6.1.20, concern above 30 °C
   ] as const)('hot weather at %f °C → %s', (t, expected) => {
@@ -199,7 +200,11 @@ describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
   it.each([
     [40, 'none'], // Source: TMS 602 protection by mean daily temperature, 40–25 °F cover for 24 h
     [39.99, 'membrane'], // Source: TMS 602 protection 40–25 °F, weather-resistive membrane 24 h
+    [25.01, 'membrane'], // Source: TMS 602 protection 40–25 °F, weather-resistive membrane 24 h
+    [25, 'membrane'], // Source: TMS 602 protection 40–25 °F (25 °F is in that band), weather-resistive membrane 24 h
     [24.99, 'insulating blankets'], // Source: TMS 602 protection 25–20 °F, insulating blankets 24 h
+    [20.01, 'insulating blankets'], // Source: TMS 602 protection 25–20 °F, insulating blankets 24 h
+    [20, 'insulating blankets'], // Source: TMS 602 protection 25–20 °F (20 °F is in that band), insulating blankets 24 h
     [19.99, 'heated enclosures'], // Source: below 20 °F row — from memory
   ])('protects new work by a mean daily temperature of %f °F: %s', (f, words) => {
     const r = find(dayWith('bricklaying', () => ({ tempC: fToC(f) }), us), 'cold.mortar.us-protection');
@@ -226,9 +231,17 @@ describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
     else expect(r?.verdict).toBe('caution');
   });
 
-  it('asks for shade above 115 °F', () => {
-    // Source: TMS 602 hot weather, above 115 °F shade materials and mixer
-    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: fToC(116) } : {}), us), 'heat.mortar.us');
-    expect(r?.message).toMatch(/shade materials and the mixer/);
+  it.each([
+    [115, 0, false], // Source: TMS 602 hot weather, above 115 °F shade materials and mixer (secondary copy: masoncontractors.org)
+    [115.01, 0, true], // Source: TMS 602 hot weather, above 115 °F shade materials and mixer (secondary copy)
+    [116, 0, true], // Source: TMS 602 hot weather, above 115 °F shade materials and mixer (secondary copy)
+    [105, 8.01, false], // Source: TMS 602 hot weather, above 105 °F with wind over 8 mph shade (secondary copy)
+    [105.01, 8.01, true], // Source: TMS 602 hot weather, above 105 °F with wind over 8 mph shade (secondary copy)
+    [105.01, 8, false], // Source: TMS 602 hot weather, above 105 °F with wind over 8 mph; 8 mph is not over 8 (secondary copy)
+  ])('at %f °F with %f mph wind asks for shade: %s', (f, mph, shade) => {
+    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: fToC(f), windMeanMs: mphToMs(mph), windGustMs: mphToMs(mph) } : {}), us), 'heat.mortar.us');
+    expect(r?.verdict).toBe('caution');
+    if (shade) expect(r?.message).toMatch(/shade materials and the mixer/);
+    else expect(r?.message).not.toMatch(/shade/);
   });
 });

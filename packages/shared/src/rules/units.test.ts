@@ -108,6 +108,18 @@ describe('beaufortForce', () => {
     expect(beaufortForce(ms).force).toBe(force);
   });
 
+  // The table is given to 0.1 m/s, so each edge sits half-way between one band's top and the next one's
+  // bottom: at the edge is the upper band, a hair below it the lower one. This tells half-way edges apart
+  // from edges at the published bottom (0.3, 1.6 …) or top (0.2, 1.5 …) of a band.
+  it.each([
+    [0.25, 1], [1.55, 2], [3.35, 3], [5.45, 4], [7.95, 5], [10.75, 6],
+    [13.85, 7], [17.15, 8], [20.75, 9], [24.45, 10], [28.45, 11], [32.65, 12],
+  ])('puts the half-way edge %d m/s in force %d and a hair below it in the force below', (edge, force) => {
+    // Source: WMO Beaufort m/s column (secondary copy, meteothes.gr), given to 0.1 m/s; reading a speed by the band it rounds into is a Hodboard rule (README)
+    expect(beaufortForce(edge).force).toBe(force);
+    expect(beaufortForce(edge - 0.0001).force).toBe(force - 1);
+  });
+
   it.each([
     [0, 'Calm', 0, 0.2], // Source: WMO Beaufort m/s table (secondary copy)
     [4, 'Moderate breeze', 5.5, 7.9], // Source: WMO Beaufort m/s table; Met Office Fact Sheet 6 names

@@ -26,46 +26,55 @@ type Row = [Activity, string, 'mean' | 'gust', number, Edge, number, 'none' | Ed
 const rows: Row[] = [
   ['mewp', 'wind.mewp.gust', 'gust', d.mewpGustStopMs, 'caution', -0.01, 'none'], // Source: BS EN 280 12.5 m/s, caution band common practice, no source
   ['mewp', 'wind.mewp.gust', 'gust', d.mewpGustStopMs, 'caution', 0, 'caution'], // Source: BS EN 280 12.5 m/s, caution band common practice, no source
+  ['mewp', 'wind.mewp.gust', 'gust', d.mewpGustStopMs, 'caution', 0.01, 'caution'], // Source: BS EN 280 12.5 m/s, caution band common practice, no source
   ['mewp', 'wind.mewp.gust', 'gust', d.mewpGustStopMs, 'stop', -0.01, 'caution'], // Source: BS EN 280:2001+A2:2009 rated 12.5 m/s (IPAF FAQ 5848, secondary copy)
   ['mewp', 'wind.mewp.gust', 'gust', d.mewpGustStopMs, 'stop', 0, 'stop'], // Source: BS EN 280:2001+A2:2009 rated 12.5 m/s (IPAF FAQ 5848, secondary copy)
   ['mewp', 'wind.mewp.gust', 'gust', d.mewpGustStopMs, 'stop', 0.01, 'stop'], // Source: BS EN 280:2001+A2:2009 rated 12.5 m/s (IPAF FAQ 5848, secondary copy)
   ['tower', 'wind.tower.mean', 'mean', d.towerMeanStopMs, 'caution', -0.01, 'none'], // Source: PASMA FAQ 17 mph; caution band common practice, no source
   ['tower', 'wind.tower.mean', 'mean', d.towerMeanStopMs, 'caution', 0, 'caution'], // Source: PASMA FAQ 17 mph; caution band common practice, no source
+  ['tower', 'wind.tower.mean', 'mean', d.towerMeanStopMs, 'caution', 0.01, 'caution'], // Source: PASMA FAQ 17 mph; caution band common practice, no source
   ['tower', 'wind.tower.mean', 'mean', d.towerMeanStopMs, 'stop', -0.01, 'caution'], // Source: PASMA FAQ (pasma.co.uk/faqs/safety), average 17 mph
   ['tower', 'wind.tower.mean', 'mean', d.towerMeanStopMs, 'stop', 0, 'stop'], // Source: PASMA FAQ (pasma.co.uk/faqs/safety), average 17 mph
   ['tower', 'wind.tower.mean', 'mean', d.towerMeanStopMs, 'stop', 0.01, 'stop'], // Source: PASMA FAQ (pasma.co.uk/faqs/safety), average 17 mph
   ['roof-work', 'wind.roof.mean', 'mean', d.roofMeanStopMs, 'caution', -0.01, 'none'], // Source: NFRC mean 23 mph; caution band common practice, no source
   ['roof-work', 'wind.roof.mean', 'mean', d.roofMeanStopMs, 'caution', 0, 'caution'], // Source: NFRC mean 23 mph; caution band common practice, no source
+  ['roof-work', 'wind.roof.mean', 'mean', d.roofMeanStopMs, 'caution', 0.01, 'caution'], // Source: NFRC mean 23 mph; caution band common practice, no source
   ['roof-work', 'wind.roof.mean', 'mean', d.roofMeanStopMs, 'stop', -0.01, 'caution'], // Source: NFRC "Roofing and cladding in windy conditions", mean 23 mph (secondary copy)
   ['roof-work', 'wind.roof.mean', 'mean', d.roofMeanStopMs, 'stop', 0, 'stop'], // Source: NFRC "Roofing and cladding in windy conditions", mean 23 mph (secondary copy)
   ['roof-work', 'wind.roof.mean', 'mean', d.roofMeanStopMs, 'stop', 0.01, 'stop'], // Source: NFRC "Roofing and cladding in windy conditions", mean 23 mph (secondary copy)
   ['roof-work', 'wind.roof.gust', 'gust', d.roofGustStopMs, 'caution', -0.01, 'none'], // Source: NFRC gusts 35 mph; caution band common practice, no source
   ['roof-work', 'wind.roof.gust', 'gust', d.roofGustStopMs, 'caution', 0, 'caution'], // Source: NFRC gusts 35 mph; caution band common practice, no source
+  ['roof-work', 'wind.roof.gust', 'gust', d.roofGustStopMs, 'caution', 0.01, 'caution'], // Source: NFRC gusts 35 mph; caution band common practice, no source
   ['roof-work', 'wind.roof.gust', 'gust', d.roofGustStopMs, 'stop', -0.01, 'caution'], // Source: NFRC windy-conditions guidance, gusting 35 mph (secondary copy)
   ['roof-work', 'wind.roof.gust', 'gust', d.roofGustStopMs, 'stop', 0, 'stop'], // Source: NFRC windy-conditions guidance, gusting 35 mph (secondary copy)
   ['roof-work', 'wind.roof.gust', 'gust', d.roofGustStopMs, 'stop', 0.01, 'stop'], // Source: NFRC windy-conditions guidance, gusting 35 mph (secondary copy)
   ['sheet-handling', 'wind.sheet.mean', 'mean', d.sheetMeanStopMs, 'caution', -0.01, 'none'], // Source: NFRC sheets mean 17 mph; caution band common practice, no source
   ['sheet-handling', 'wind.sheet.mean', 'mean', d.sheetMeanStopMs, 'caution', 0, 'caution'], // Source: NFRC sheets mean 17 mph; caution band common practice, no source
+  ['sheet-handling', 'wind.sheet.mean', 'mean', d.sheetMeanStopMs, 'caution', 0.01, 'caution'], // Source: NFRC sheets mean 17 mph; caution band common practice, no source
   ['sheet-handling', 'wind.sheet.mean', 'mean', d.sheetMeanStopMs, 'stop', -0.01, 'caution'], // Source: NFRC windy-conditions guidance, sheets over 5 m, mean 17 mph (secondary copy)
   ['sheet-handling', 'wind.sheet.mean', 'mean', d.sheetMeanStopMs, 'stop', 0, 'stop'], // Source: NFRC windy-conditions guidance, sheets over 5 m, mean 17 mph (secondary copy)
   ['sheet-handling', 'wind.sheet.mean', 'mean', d.sheetMeanStopMs, 'stop', 0.01, 'stop'], // Source: NFRC windy-conditions guidance, sheets over 5 m, mean 17 mph (secondary copy)
   ['sheet-handling', 'wind.sheet.gust', 'gust', d.sheetGustStopMs, 'caution', -0.01, 'none'], // Source: NFRC sheets gusts 26 mph; caution band common practice, no source
   ['sheet-handling', 'wind.sheet.gust', 'gust', d.sheetGustStopMs, 'caution', 0, 'caution'], // Source: NFRC sheets gusts 26 mph; caution band common practice, no source
+  ['sheet-handling', 'wind.sheet.gust', 'gust', d.sheetGustStopMs, 'caution', 0.01, 'caution'], // Source: NFRC sheets gusts 26 mph; caution band common practice, no source
   ['sheet-handling', 'wind.sheet.gust', 'gust', d.sheetGustStopMs, 'stop', -0.01, 'caution'], // Source: NFRC windy-conditions guidance, sheets over 5 m, gusting 26 mph (secondary copy)
   ['sheet-handling', 'wind.sheet.gust', 'gust', d.sheetGustStopMs, 'stop', 0, 'stop'], // Source: NFRC windy-conditions guidance, sheets over 5 m, gusting 26 mph (secondary copy)
   ['sheet-handling', 'wind.sheet.gust', 'gust', d.sheetGustStopMs, 'stop', 0.01, 'stop'], // Source: NFRC windy-conditions guidance, sheets over 5 m, gusting 26 mph (secondary copy)
   ['work-at-height', 'wind.scaffold-use.gust', 'gust', d.scaffoldUseGustStopMs, 'caution', -0.01, 'none'], // Source: 18 m/s weak secondary copy; caution band common practice, no source
   ['work-at-height', 'wind.scaffold-use.gust', 'gust', d.scaffoldUseGustStopMs, 'caution', 0, 'caution'], // Source: 18 m/s weak secondary copy; caution band common practice, no source
+  ['work-at-height', 'wind.scaffold-use.gust', 'gust', d.scaffoldUseGustStopMs, 'caution', 0.01, 'caution'], // Source: 18 m/s weak secondary copy; caution band common practice, no source
   ['work-at-height', 'wind.scaffold-use.gust', 'gust', d.scaffoldUseGustStopMs, 'stop', -0.01, 'caution'], // Source: scaffold designer blog "usual maximum" 18 m/s (weak secondary copy; no NASC figure)
   ['work-at-height', 'wind.scaffold-use.gust', 'gust', d.scaffoldUseGustStopMs, 'stop', 0, 'stop'], // Source: scaffold designer blog "usual maximum" 18 m/s (weak secondary copy; no NASC figure)
   ['work-at-height', 'wind.scaffold-use.gust', 'gust', d.scaffoldUseGustStopMs, 'stop', 0.01, 'stop'], // Source: scaffold designer blog "usual maximum" 18 m/s (weak secondary copy; no NASC figure)
   ['scaffold-erection', 'wind.scaffold-erection.mean', 'mean', d.scaffoldErectionMeanStopMs, 'caution', -0.01, 'none'], // Source: common practice, no source
   ['scaffold-erection', 'wind.scaffold-erection.mean', 'mean', d.scaffoldErectionMeanStopMs, 'caution', 0, 'caution'], // Source: common practice, no source
+  ['scaffold-erection', 'wind.scaffold-erection.mean', 'mean', d.scaffoldErectionMeanStopMs, 'caution', 0.01, 'caution'], // Source: common practice, no source
   ['scaffold-erection', 'wind.scaffold-erection.mean', 'mean', d.scaffoldErectionMeanStopMs, 'stop', -0.01, 'caution'], // Source: common practice, no source (HSE 23 mph balance figure applied)
   ['scaffold-erection', 'wind.scaffold-erection.mean', 'mean', d.scaffoldErectionMeanStopMs, 'stop', 0, 'stop'], // Source: common practice, no source (HSE 23 mph balance figure applied)
   ['scaffold-erection', 'wind.scaffold-erection.mean', 'mean', d.scaffoldErectionMeanStopMs, 'stop', 0.01, 'stop'], // Source: common practice, no source (HSE 23 mph balance figure applied)
   ['scaffold-erection', 'wind.scaffold-erection.gust', 'gust', d.scaffoldErectionGustStopMs, 'caution', -0.01, 'none'], // Source: common practice, no source
   ['scaffold-erection', 'wind.scaffold-erection.gust', 'gust', d.scaffoldErectionGustStopMs, 'caution', 0, 'caution'], // Source: common practice, no source
+  ['scaffold-erection', 'wind.scaffold-erection.gust', 'gust', d.scaffoldErectionGustStopMs, 'caution', 0.01, 'caution'], // Source: common practice, no source
   ['scaffold-erection', 'wind.scaffold-erection.gust', 'gust', d.scaffoldErectionGustStopMs, 'stop', -0.01, 'caution'], // Source: common practice, no source (NFRC 35 mph gust applied)
   ['scaffold-erection', 'wind.scaffold-erection.gust', 'gust', d.scaffoldErectionGustStopMs, 'stop', 0, 'stop'], // Source: common practice, no source (NFRC 35 mph gust applied)
   ['scaffold-erection', 'wind.scaffold-erection.gust', 'gust', d.scaffoldErectionGustStopMs, 'stop', 0.01, 'stop'], // Source: common practice, no source (NFRC 35 mph gust applied)
@@ -94,6 +103,7 @@ describe('wind limits', () => {
   });
 
   it.each([
+    ['roof-work', 'wind.roof.balance', 22.99, 'none'], // Source: HSE roof-work FAQ, "in excess of 23 mph (force 5)" affects balance
     ['roof-work', 'wind.roof.balance', 23, 'none'], // Source: HSE roof-work FAQ, "in excess of 23 mph (force 5)" affects balance
     ['roof-work', 'wind.roof.balance', 23.01, 'caution'], // Source: HSE roof-work FAQ, "in excess of 23 mph (force 5)" affects balance
     ['work-at-height', 'wind.scaffold-use.balance', 22.99, 'none'], // Source: common practice, no source — HSE's roof-work 23 mph figure applied to scaffold edges
