@@ -67,6 +67,24 @@ ensure_postgres_installed() {
   log "Installing PostgreSQL from Debian's packages"
   apt_install postgresql
   find_pg_bin || die "PostgreSQL was installed but no /usr/lib/postgresql/*/bin/initdb was found"
+  stop_debian_main_cluster
+}
+
+# Debian's postinst creates a "main" cluster and starts it on 5432; the project runs its own cluster, so the one
+# that this install just started is stopped again. Only called right after installing: a cluster that was already
+# there may be someone's own. Failure (no such cluster, not running, no systemd) is fine.
+stop_debian_main_cluster() {
+  command -v pg_ctlcluster >/dev/null 2>&1 || return 0
+  local dir ver
+  for dir in /etc/postgresql/*/main; do
+    [ -d "$dir" ] || continue
+    ver=$(basename "$(dirname "$dir")")
+    # A subshell, because as_root exits the script when it cannot get root.
+    if (as_root pg_ctlcluster "$ver" main stop) >/dev/null 2>&1; then
+      note "stopped Debian's own PostgreSQL cluster $ver/main; Hodboard runs its own"
+    fi
+  done
+  return 0
 }
 
 ensure_chromium_installed() {
