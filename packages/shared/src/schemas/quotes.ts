@@ -381,7 +381,8 @@ export function quotedHireWeeks(content: Pick<QuoteContent, 'accessHire'>, acces
 /**
  * What a price-list item costs the firm per unit. A VAT-registered firm reclaims the VAT it pays
  * suppliers, so its cost is the price before VAT; a firm that is not registered bears that VAT.
- * Source: HMRC VAT Notice 700 (input tax recovery by registered businesses) — from memory.
+ * Source: HMRC, "What you can and can't reclaim VAT on" (input tax); only registered businesses reclaim it
+ * (secondary summary). The VAT is rounded to the nearer penny, which VAT Notice 700 para 17.5 allows (VATREC12010).
  */
 export function materialCostPence(material: Pick<MaterialValues, 'unitPricePence' | 'isVatable'>, settings: Pick<CostingSettings, 'vatRegistered' | 'vatRatePct'>): number {
   if (settings.vatRegistered || !material.isVatable) return material.unitPricePence;
