@@ -22,12 +22,14 @@ describe('accessWindowFor', () => {
   });
 
   it('leaves the scaffold up through the curing days', () => {
+    // Source: Hodboard rule (common practice, no source) — strike from the next working day after the last job day plus the curing days, counted as calendar days
     // Friday last day + 3 calendar days of curing = Monday, so strike from Tuesday.
     expect(accessWindowFor(['2026-03-05', '2026-03-06'], { curingDays: 3 }).strikeFrom).toBe('2026-03-10');
     expect(accessWindowFor(['2026-03-05', '2026-03-06'], { curingDays: 0 }).strikeFrom).toBe('2026-03-09');
   });
 
   it('refuses an empty or back-to-front span', () => {
+    // Source: Hodboard rule — a job span is one or more dates in order
     expect(() => accessWindowFor([])).toThrow(/at least one date/);
     expect(() => accessWindowFor(['2026-03-06', '2026-03-05'])).toThrow(/date order/);
   });
@@ -56,6 +58,7 @@ describe('hireCost', () => {
   });
 
   it('refuses a rate in fractions of a penny', () => {
+    // Source: Hodboard rule — money is integer pence
     expect(() => hireCost({ erectBy: '2026-03-02', strikeFrom: '2026-03-10' }, { weeklyRate: 99.5, minimumWeeks: 1 })).toThrow(/weeklyRate/);
   });
 });
@@ -83,6 +86,7 @@ describe('inspectionsDue', () => {
   });
 
   it('never leaves more than 7 days between inspections', () => {
+    // Source: Work at Height Regulations 2005 reg 12 — a working platform is not used unless inspected within the previous 7 days (secondary copy)
     const due = inspectionsDue('2026-01-05', '2026-06-30', ['2026-02-14', '2026-02-15', '2026-04-01'], 'uk').map((i) => Date.parse(i.date));
     for (let i = 1; i < due.length; i++) expect(((due[i] as number) - (due[i - 1] as number)) / 86_400_000).toBeLessThanOrEqual(7);
   });
@@ -101,6 +105,7 @@ describe('inspectionsDue', () => {
   });
 
   it('takes the adverse days from the wind stops in day assessments', () => {
+    // Source: WAHR 2005 reg 12 — inspect after adverse weather (secondary copy); a day with a wind stop counts as adverse (Hodboard rule); 24 m/s gusts pass the 18 m/s scaffold-use stop (weak secondary copy)
     const calm = assessDay({ activities: ['work-at-height'], forecast: hourlyForecast(DAY), window: WINDOW });
     const gale = assessDay({
       activities: ['work-at-height'],
@@ -126,6 +131,7 @@ describe('inspectionsDue', () => {
   });
 
   it('refuses a strike before erection', () => {
+    // Source: Hodboard rule — access is struck on or after the day it goes up
     expect(() => inspectionsDue('2026-03-10', '2026-03-02', [], 'uk')).toThrow(/struck on or after/);
   });
 });

@@ -8,6 +8,7 @@ import { resolveRuleSettings } from './settings.js';
 
 describe('assessDay', () => {
   it('gives go with the whole window usable on a calm mild day', () => {
+    // Source: Hodboard rule — no reason gives go with the whole window usable; 12 °C, 2 m/s mean and 4 m/s gusts sit below every default limit (settings.test.ts)
     const day = assessDay({ activities: ['bricklaying', 'mewp'], forecast: hourlyForecast(DAY, FULL_HOURS), window: WINDOW });
     expect(day.verdict).toBe('go');
     expect(day.windowHours).toBe(9);
@@ -19,6 +20,7 @@ describe('assessDay', () => {
   });
 
   it('takes the worst verdict of the day’s activities', () => {
+    // Source: Hodboard rule — the day is the worst of its activities. 16 m/s gusts: MEWP stop at 12.5 m/s (BS EN 280, IPAF FAQ 5848, secondary copy); scaffold-use caution from 0.8 × 18 m/s (common practice, no source)
     const forecast = hourlyForecast(DAY, FULL_HOURS, (h) => (inWindow(h) ? { windMeanMs: 9, windGustMs: 16 } : {}));
     const day = assessDay({ activities: ['bricklaying', 'work-at-height', 'mewp'], forecast, window: WINDOW });
     expect(day.activities.map((a) => a.verdict)).toEqual(['go', 'caution', 'stop']);
@@ -90,12 +92,14 @@ describe('assessDay', () => {
   });
 
   it('counts part hours at the edges of the window', () => {
+    // Source: Hodboard rule — a forecast hour stands for the hour from its time, and part hours in the window count pro rata
     const day = assessDay({ activities: ['tower'], forecast: hourlyForecast(DAY), window: { start: '2026-03-02T07:45:00Z', end: '2026-03-02T16:30:00Z' } });
     expect(day.windowHours).toBe(8.75);
     expect(day.activities[0]?.usableHours).toBe(8.75);
   });
 
   it('does not count hours the forecast leaves out, and says so', () => {
+    // Source: Hodboard rule — every working hour needs a forecast hour (SOURCES.forecast); 12 h from midnight leave 12:00–17:00 out
     const forecast = hourlyForecast(DAY, 12);
     const a = assessDay({ activities: ['roof-work'], forecast, window: WINDOW }).activities[0];
     expect(a?.usableHours).toBe(4);
@@ -103,6 +107,7 @@ describe('assessDay', () => {
   });
 
   it('reads a window given with an offset the same as its UTC twin', () => {
+    // Source: RFC 3339 §5.6 (ISO 8601 offsets) — 08:00+01:00 is 07:00Z
     const forecast = hourlyForecast('2026-07-01T23:00:00Z');
     const a = assessDay({ activities: ['mewp'], forecast, window: { start: '2026-07-02T08:00:00+01:00', end: '2026-07-02T17:00:00+01:00' } });
     const b = assessDay({ activities: ['mewp'], forecast, window: { start: '2026-07-02T07:00:00Z', end: '2026-07-02T16:00:00Z' } });
@@ -127,6 +132,7 @@ describe('assessDay', () => {
   });
 
   it('takes a daylight-cut winter window from workingWindow', () => {
+    // Source: common practice, no source — the window is cut to sunrise–sunset; the times are checked against astronomy-engine in daylight.test.ts
     const light = daylight('2026-12-21', 51.5074, -0.1278);
     const w = workingWindow('2026-12-21', { start: '07:30', end: '17:00' }, 'Europe/London', { times: light });
     if (w === null) throw new Error('expected a window');
@@ -136,6 +142,7 @@ describe('assessDay', () => {
   });
 
   it('gives every reason a rule id, a threshold, the observed value, a source and plain text', () => {
+    // Source: Hodboard rule — every reason carries a stable rule id, its threshold, the observed value, a source label and a plain message
     const forecast = hourlyForecast(DAY, 72, (h) => (inWindow(h) ? { tempC: 2, windMeanMs: 11, windGustMs: 19, precipMm: 1, precipProbability: 0.9 } : { tempC: -1 }));
     const day = assessDay({ activities: ['bricklaying', 'work-at-height', 'roof-work', 'concrete'], forecast, window: WINDOW });
     const reasons = day.activities.flatMap((a) => a.reasons);
@@ -158,11 +165,13 @@ describe('assessDay', () => {
     [{ forecast: [...hourlyForecast(DAY, 12)].reverse() }, /time order/],
     [{ forecast: hourlyForecast(DAY, 12, (h) => (h === 9 ? { tempC: Number.NaN } : {})) }, /non-numeric/],
   ])('refuses bad input %j with a clear error', (patch, message) => {
+    // Source: Hodboard rule — bad input is refused with a readable error, never half-assessed
     const input = { activities: ['mewp'], forecast: hourlyForecast(DAY, 12), window: WINDOW, ...patch } as Parameters<typeof assessDay>[0];
     expect(() => assessDay(input)).toThrow(message);
   });
 
   it('validates API input with its schema', () => {
+    // Source: Hodboard rule — API payloads go through the shared zod schema; a probability is 0–1
     const ok = assessDayInputSchema.safeParse({ activities: [{ activity: 'pointing', mortar: 'hydraulic-lime' }], forecast: hourlyForecast(DAY, 24), window: WINDOW });
     expect(ok.success).toBe(true);
     const bad = assessDayInputSchema.safeParse({ activities: ['mewp'], forecast: hourlyForecast(DAY, 2, () => ({ precipProbability: 40 })), window: WINDOW });

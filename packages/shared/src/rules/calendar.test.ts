@@ -46,11 +46,13 @@ describe('isWorkingDay', () => {
   });
 
   it('keeps firm closures off the board', () => {
+    // Source: Hodboard rule — firm closure dates are days off; gov.uk bank-holidays.json (hand-typed copy): 25 and 28 Dec 2026 and 1 Jan 2027 are bank holidays, 2–3 Jan 2027 a weekend
     const shut = { ...eng, closures: ['2026-12-29', '2026-12-30', '2026-12-31'] };
     expect(spanFor('2026-12-24', 3, shut)).toEqual(['2026-12-24', '2027-01-04', '2027-01-05']);
   });
 
   it('ignores holidays when the calendar has no region', () => {
+    // Source: Hodboard rule — a calendar without a region has no public holidays; 3 Apr 2026 (Good Friday) is a Friday
     expect(isWorkingDay('2026-04-03', { ...eng, region: null })).toBe(true);
   });
 
@@ -103,6 +105,7 @@ describe('addWorkingDays and workingDaysBetween', () => {
   });
 
   it('counts back to the same number of working days it added', () => {
+    // Source: Hodboard rule — workingDaysBetween counts (a, b], so it undoes addWorkingDays, whatever the holidays, closures and leave
     const cal = withLeave(['DTSTART:20250103\nRRULE:FREQ=WEEKLY;INTERVAL=2;BYDAY=FR'], { closures: ['2026-08-28'] });
     fc.assert(
       fc.property(fc.integer({ min: 0, max: 3 * 365 }), fc.integer({ min: -120, max: 120 }), (offset, n) => {
@@ -113,6 +116,7 @@ describe('addWorkingDays and workingDaysBetween', () => {
   });
 
   it('always lands on a working day', () => {
+    // Source: Hodboard rule — addWorkingDays never lands on a day off
     fc.assert(
       fc.property(fc.integer({ min: 0, max: 3 * 365 }), fc.integer({ min: 1, max: 60 }), (offset, n) => {
         expect(isWorkingDay(addWorkingDays(addDays('2025-01-01', offset), n, eng), eng)).toBe(true);
@@ -121,6 +125,7 @@ describe('addWorkingDays and workingDaysBetween', () => {
   });
 
   it('refuses fractional days and calendars with no working weekday', () => {
+    // Source: Hodboard rule — whole working days only, and a calendar needs a day it can work
     expect(() => addWorkingDays('2026-03-02', 1.5, eng)).toThrow(/integer/);
     expect(() => spanFor('2026-03-02', 3, { ...eng, weekdays: [] })).toThrow(/at least one weekday/);
     expect(() => spanFor('2026-03-02', 3, { ...eng, weekdays: [6], closures: [] , region: null, leave: ['DTSTART:20260307\nRRULE:FREQ=WEEKLY;BYDAY=SA'] })).toThrow(/no working day/);
@@ -134,11 +139,13 @@ describe('spanFor', () => {
   });
 
   it('starts on the next working day when the start is a day off', () => {
+    // Source: gov.uk bank-holidays.json, england-and-wales (hand-typed copy): Good Friday 3 Apr and Easter Monday 6 Apr 2026; 4–5 Apr is a weekend
     expect(spanFor('2026-04-03', 1, eng)).toEqual(['2026-04-07']);
     expect(nextWorkingDay('2026-04-04', eng)).toBe('2026-04-07');
   });
 
   it('returns exactly n ascending working days, first on or after the start', () => {
+    // Source: Hodboard rule — spanFor(start, n) is the first n working days on or after the start
     fc.assert(
       fc.property(fc.integer({ min: 0, max: 3 * 365 }), fc.integer({ min: 0, max: 40 }), (offset, n) => {
         const start = addDays('2025-01-01', offset);
@@ -155,12 +162,14 @@ describe('spanFor', () => {
   });
 
   it('refuses a negative length', () => {
+    // Source: Hodboard rule — a job has zero or more working days
     expect(() => spanFor('2026-03-02', -1, eng)).toThrow(RangeError);
   });
 });
 
 describe('workCalendarSchema', () => {
   it('accepts the default calendar', () => {
+    // Source: Hodboard rule — the default calendar (Mon–Fri, England, Europe/London) passes its own schema
     expect(workCalendarSchema.parse(defaultWorkCalendar)).toEqual(defaultWorkCalendar);
   });
 
@@ -174,6 +183,7 @@ describe('workCalendarSchema', () => {
     [{ leave: ['DTSTART:20260102\nRRULE:FREQ=SOMETIMES'] }, 'leave'],
     [{ region: { country: 'gb' } }, 'region'],
   ])('rejects %j with an error at %s', (patch, path) => {
+    // Source: Hodboard rule — weekdays are ISO 8601 1–7 without repeats, dates real, zones IANA names, leave RFC 5545 with DTSTART
     const r = workCalendarSchema.safeParse({ ...defaultWorkCalendar, ...patch });
     expect(r.success).toBe(false);
     expect(r.error?.issues[0]?.path[0]).toBe(path);

@@ -84,11 +84,13 @@ describe('daylight', () => {
   });
 
   it('reports polar night and polar day instead of inventing times', () => {
+    // Source: Svalbard (78° N) has polar night at the December solstice and midnight sun at the June one — from memory
     expect(daylight('2026-12-21', 78.22, 15.65).polar).toBe('night');
     expect(daylight('2026-06-21', 78.22, 15.65).daylightHours).toBe(24);
   });
 
   it('refuses coordinates off the globe', () => {
+    // Source: Hodboard rule — latitude −90…90, longitude −180…180
     expect(() => daylight('2026-03-02', 91, 0)).toThrow(/latitude/);
     expect(() => daylight('2026-03-02', 51, 181)).toThrow(/longitude/);
   });
@@ -121,12 +123,14 @@ describe('workingWindow', () => {
   });
 
   it('keeps the firm’s hours in midsummer, in summer time', () => {
+    // Source: IANA tz database — London is UTC+1 (BST) on 22 Jun 2026; sunrise and sunset lie outside 07:30–17:00 there (see the astronomy-engine cross-check)
     const light = daylight('2026-06-22', LONDON.lat, LONDON.lon);
     const w = workingWindow('2026-06-22', hours, 'Europe/London', { times: light });
     expect(w).toEqual({ start: '2026-06-22T06:30:00.000Z', end: '2026-06-22T16:00:00.000Z', hours: 9.5 });
   });
 
   it('allows civil twilight when the firm chooses it', () => {
+    // Source: civil twilight is the sun's centre 6° below the horizon (suncalc README; checked against astronomy-engine above); working by it is the firm's choice, common practice, no source
     const light = daylight('2026-12-21', LONDON.lat, LONDON.lon);
     const w = workingWindow('2026-12-21', hours, 'Europe/London', { times: light, limit: 'civil-twilight' });
     expect(w?.start).toBe('2026-12-21T07:30:00.000Z');
@@ -134,6 +138,7 @@ describe('workingWindow', () => {
   });
 
   it('returns no window in polar night and refuses hours that end before they start', () => {
+    // Source: Svalbard polar night at the December solstice — from memory; hours must end after they start (Hodboard rule)
     const light = daylight('2026-12-21', 78.22, 15.65);
     expect(workingWindow('2026-12-21', hours, 'Arctic/Longyearbyen', { times: light })).toBeNull();
     expect(() => workingWindow('2026-12-21', { start: '17:00', end: '08:00' }, 'Europe/London')).toThrow(/end after/);
