@@ -198,6 +198,21 @@ describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
   });
 
   it.each([
+    [39, 1], // Source: TMS 602 / ACI 530.1 preparation, for any cold-weather band (secondary copies: masoncontractors.org, masonryconstruction.com)
+    [30, 2], // Source: TMS 602 / ACI 530.1 preparation, for any cold-weather band (secondary copies)
+    [22, 3], // Source: TMS 602 / ACI 530.1 preparation, for any cold-weather band (secondary copies)
+    [15, 4], // Source: TMS 602 / ACI 530.1 preparation, for any cold-weather band (secondary copies)
+  ])('at %f °F (band %d) lists the preparation before laying, apart from the construction measures', (f, band) => {
+    const r = find(dayWith('bricklaying', (h) => (inWindow(h) ? { tempC: fToC(f) } : {}), us), 'cold.mortar.us-construction');
+    expect(r?.message).toMatch(new RegExp(`band ${band}\\. Before laying: `));
+    expect(r?.message).toMatch(/do not lay units that have frozen moisture, visible ice or snow on them/);
+    expect(r?.message).toMatch(/heat units colder than 20 °F to at least 40 °F before laying/);
+    expect(r?.message).toMatch(/heat any surface that will take mortar and has ice or snow on it until it is above freezing: brushing the ice or snow off is not enough/);
+    expect(r?.message).toMatch(/While laying: heat sand or mixing water so mortar is 40–120 °F/);
+    expect(r?.source).toMatch(/preparation of units and iced surfaces/);
+  });
+
+  it.each([
     [40, 'none'], // Source: TMS 602 protection by mean daily temperature, 40–25 °F cover for 24 h
     [39.99, 'membrane'], // Source: TMS 602 protection 40–25 °F, weather-resistive membrane 24 h
     [25.01, 'membrane'], // Source: TMS 602 protection 40–25 °F, weather-resistive membrane 24 h

@@ -95,10 +95,17 @@ export interface UsColdBand {
 
 // Cumulative: each band adds to the measures of the bands above it.
 export const usColdBands: readonly UsColdBand[] = [
-  { band: 1, fromF: 32, belowF: 40, construction: 'heat sand or mixing water so mortar is 40–120 °F; do not lay units with frost or ice on them' },
+  { band: 1, fromF: 32, belowF: 40, construction: 'heat sand or mixing water so mortar is 40–120 °F' },
   { band: 2, fromF: 25, belowF: 32, construction: 'heat sand and water; keep mortar above freezing until used; heat grout materials' },
   { band: 3, fromF: 20, belowF: 25, construction: 'heat surfaces under construction to 40 °F; windbreaks or enclosure when wind exceeds 15 mph; heat masonry to 40 °F before grouting' },
-  { band: 4, fromF: -Infinity, belowF: 20, construction: 'enclose and heat to keep the air above 32 °F; heat units to 40 °F' },
+  { band: 4, fromF: -Infinity, belowF: 20, construction: 'enclose and heat to keep the air above 32 °F' },
+];
+
+/** Preparation before laying in any cold-weather band; set by the units and surfaces, not the air. */
+export const usColdPreparation: readonly string[] = [
+  'do not lay units that have frozen moisture, visible ice or snow on them',
+  'heat units colder than 20 °F to at least 40 °F before laying',
+  'heat any surface that will take mortar and has ice or snow on it until it is above freezing: brushing the ice or snow off is not enough',
 ];
 
 export function usColdBandFor(tempC: number, coldBelowC: number): UsColdBand | null {
@@ -125,7 +132,7 @@ export function checkUsMortarCold(ctx: HourContext, out: RuleReason[]): void {
       ruleId: 'cold.mortar.us-construction',
       verdict: 'caution',
       threshold: s.usColdBelowC,
-      message: `Air down to ${fmt(cToF(cold.tempC), 0)} °F (${fmt(cold.tempC)} °C), cold-weather band ${band.band}: ${measures}. ${DEFER}`,
+      message: `Air down to ${fmt(cToF(cold.tempC), 0)} °F (${fmt(cold.tempC)} °C), cold-weather band ${band.band}. Before laying: ${usColdPreparation.join('; ')}. While laying: ${measures}. ${DEFER}`,
       source: SOURCES.tms602Cold,
     }));
   }

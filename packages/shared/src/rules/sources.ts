@@ -15,7 +15,7 @@ export const SOURCES = {
   nbsF10Lime: 'NBS specification clause F10/185, hydraulic lime mortar (secondary copy)',
   nhbcFrost: 'NHBC Standards 2023 §3.2.5: frost protection may be needed for up to six days',
   nhbcHeat: 'NHBC Standards 2022 §6.1.20: hot weather above 30 °C',
-  tms602Cold: 'TMS 602 / ACI 530.1 cold-weather construction, ACI 530.1-02 table (secondary copy: Masonry Magazine Sept 2004)',
+  tms602Cold: 'TMS 602 / ACI 530.1 cold-weather construction, ACI 530.1-02 table (secondary copy: Masonry Magazine Sept 2004); preparation of units and iced surfaces (secondary copies: masoncontractors.org cold-weather construction, masonryconstruction.com)',
   tms602Protection: 'TMS 602 / ACI 530.1 cold-weather protection by mean daily temperature (secondary copy; below 20 °F row from memory)',
   tms602Hot: 'TMS 602 / ACI 530.1 hot-weather construction: above 100 °F, or 90 °F with wind over 8 mph (secondary copy)',
   aci306: 'ACI 306R cold weather: air at or expected below 40 °F during the protection period (concrete.org); 72 h period from memory',
