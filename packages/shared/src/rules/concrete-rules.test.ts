@@ -23,9 +23,9 @@ describe('concrete reason wording', () => {
 
 describe('concrete in cold weather', () => {
   it.each([
-    [5.01, 'none'], // Source: BS 8500-2 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
-    [5, 'none'], // Source: BS 8500-2 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
-    [4.99, 'caution'], // Source: BS 8500-2 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
+    [5.01, 'none'], // Source: BS 8500 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
+    [5, 'none'], // Source: BS 8500 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
+    [4.99, 'caution'], // Source: BS 8500 / BS EN 206, at least 5 °C at discharge (hanson.co.uk)
   ] as const)('air of %f °C in the window → UK discharge rule %s', (t, expected) => {
     const r = find(pour((h) => (inWindow(h) ? { tempC: t } : {})), 'cold.concrete.uk-discharge');
     if (expected === 'none') expect(r).toBeUndefined();

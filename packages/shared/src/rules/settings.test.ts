@@ -28,7 +28,7 @@ const numberDefaults = [
   ['usHotWindyAboveC', 32.222], // Source: TMS 602, 90 °F (secondary copy)
   ['usHotWindAboveMs', 3.576], // Source: TMS 602, 8 mph (secondary copy)
   ['concreteColdAtOrBelowC', 4.444], // Source: ACI 306R, 40 °F (concrete.org)
-  ['concreteMinDischargeC', 5], // Source: BS 8500-2 / BS EN 206 (hanson.co.uk)
+  ['concreteMinDischargeC', 5], // Source: BS 8500 / BS EN 206 (hanson.co.uk)
   ['concreteProtectionHours', 72], // Source: ACI 306R protection period table, exposed, 3 days — from memory
   ['usHotExtremeAboveC', 46.111], // Source: TMS 602 hot weather, shade above 115 °F (secondary copy: masoncontractors.org)
   ['usHotExtremeWindyAboveC', 40.556], // Source: TMS 602 hot weather, shade above 105 °F with wind over 8 mph (secondary copy)

@@ -19,7 +19,7 @@ export const SOURCES = {
   tms602Protection: 'TMS 602 / ACI 530.1 cold-weather protection by mean daily temperature (secondary copy; below 20 °F row from memory)',
   tms602Hot: 'TMS 602 / ACI 530.1 hot-weather construction: above 100 °F, or 90 °F with wind over 8 mph (secondary copy)',
   aci306: 'ACI 306R cold weather: air at or expected below 40 °F during the protection period (concrete.org); 72 h period from memory',
-  bs8500: 'BS 8500-2 / BS EN 206: concrete at least 5 °C at discharge, kept at 5 °C until 5 N/mm² (hanson.co.uk)',
+  bs8500: 'BS 8500 / BS EN 206: concrete at least 5 °C at discharge, kept at 5 °C until 5 N/mm² (hanson.co.uk)',
   concreteFreezing: 'Common practice, no source: no pour into freezing air without a heated enclosure',
   rainFresh: 'Common practice, no source: rain thresholds for fresh mortar, render and concrete; NBS F10/185 says cover the work',
   rainHeavy: 'Met Office: heavy rain above 4 mm/h (from memory); stop rule common practice, no source',

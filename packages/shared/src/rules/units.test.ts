@@ -15,7 +15,8 @@ describe('speed and temperature conversions', () => {
     [23, mphToMs, 10.3], // Source: HSE roof-work FAQ via trade-rules §1b, 23 mph = 10.3 m/s
     [35, mphToMs, 15.6], // Source: NFRC windy-conditions guidance via trade-rules §1b, 35 mph = 15.6 m/s
     [26, mphToMs, 11.6], // Source: NFRC windy-conditions guidance via trade-rules §1b, 26 mph = 11.6 m/s
-    [40, mphToMs, 17.9], // Source: OSHA high-wind note, 40 mph = 64.4 km/h (17.9 m/s)
+    [40, (mph: number) => msToKmh(mphToMs(mph)), 64.4], // Source: OSHA note to the "high wind" definition, 40 mph (64.4 km/h) — secondary copy (spectrumsafetytraining.com); the section, 29 CFR 1926.968 / 1910.269(x), from memory
+    [30, (mph: number) => msToKmh(mphToMs(mph)), 48.3], // Source: same OSHA note, 30 mph (48.3 km/h) when handling material — secondary copy; section from memory
   ])('converts %d to the published figure (%#)', (input, convert, expected) => {
     const digits = String(expected).split('.')[1]?.length ?? 0;
     expect(convert(input)).toBeCloseTo(expected, Math.min(digits, 5));

@@ -1,5 +1,5 @@
-// Exact factors: 1 mile = 1609.344 m and 1 knot = 1852 m/h by definition (NIST SP 811);
-// NOAA AOML FAQ A14 gives the same factors rounded (0.4470, 0.5144).
+// Exact factors: 1 mile = 1609.344 m and 1 knot = 1852 m/h by definition (NIST SP 811 — from memory,
+// not checked against its text); NOAA AOML FAQ A14 gives the same factors rounded (0.4470, 0.5144).
 const MS_PER_MPH = 0.44704;
 const MS_PER_KNOT = 1852 / 3600;
 const KMH_PER_MS = 3.6;
