@@ -337,6 +337,105 @@ describe('supplier links across firms', () => {
   });
 });
 
+describe('bookings whose jobs leave the board or are cancelled', () => {
+  const toTray = async () => {
+    const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+    await request(h.app).delete(`/api/assignments/${job.body.assignment.id}`).query({ version: job.body.assignment.version }).set(owner.auth).expect(200);
+  };
+  const cancelJob = () => request(h.app).post(`/api/jobs/${ids.jobId}/status`).set(owner.auth).send({ status: 'cancelled' }).expect(200);
+  const confirm = async (booking: AccessBookingDto) =>
+    (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200)).body as AccessBookingDto;
+  const mailsTo = (to: string) => h.mailer.outbox.filter((m) => m.to === to);
+  const auditOf = async (bookingId: string) =>
+    ((await h.dataSource.query(`SELECT action, after FROM audit_event WHERE entity_id = $1 ORDER BY at, id`, [bookingId])) as Array<{ action: string; after: unknown }>);
+
+  it('cancels a booking that is only requested when its job goes back to the tray, and tells nobody outside', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await toTray();
+    expect(await bookingNow(booking.id)).toMatchObject({ state: 'cancelled', cancelledBecause: 'job-unscheduled', hasNoWork: false, neededErect: null });
+    expect((await auditOf(booking.id)).at(-1)).toEqual({ action: 'cancelled-with-job', after: { state: 'cancelled', reason: 'job-unscheduled' } });
+    expect(mailsTo('hire@loftypoles.example')).toHaveLength(0);
+    const board = (await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-05' }).set(owner.auth).expect(200)).body as BoardDto;
+    expect(board.trayJobIds).toContain(ids.jobId);
+    expect(board.accessBands).toEqual([]);
+  });
+
+  it('asks again for the window the job needs now when a lapsed request is made again', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await toTray();
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: ids.jobId, crewId: ids.crewId, startDate: '2027-03-10' }).expect(201);
+    const lapsed = await bookingNow(booking.id);
+    const again = (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'requested', version: lapsed.version }).expect(200)).body as AccessBookingDto;
+    // Wed 10 – Fri 12 March: up Tue 9, down Mon 15.
+    expect(again).toMatchObject({ state: 'requested', requestedErect: '2027-03-09', requestedStrike: '2027-03-15', cancelledBecause: null, hasNoWork: false });
+  });
+
+  it('keeps a confirmed booking when its job goes back to the tray, flags it, and mails the supplier when the office cancels it', async () => {
+    const booking = await confirm((await book()).body as AccessBookingDto);
+    await toTray();
+    const flagged = await bookingNow(booking.id);
+    expect(flagged).toMatchObject({ state: 'confirmed', hasNoWork: true, neededErect: null, confirmedErect: '2027-02-26', confirmedStrike: '2027-03-04' });
+    expect(mailsTo('hire@loftypoles.example')).toHaveLength(0);
+
+    const cancelled = (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'cancelled', version: flagged.version }).expect(200)).body as AccessBookingDto;
+    expect(cancelled).toMatchObject({ state: 'cancelled', cancelledBecause: null, hasNoWork: false });
+    const [notice] = mailsTo('hire@loftypoles.example');
+    expect(mailsTo('hire@loftypoles.example')).toHaveLength(1);
+    expect(notice!.subject).toBe('Cancelled: scaffold at 2 Sheepwash Lane, Lowmoor, LM3 9QD');
+    expect(notice!.text).toContain('Gorse Hill Builders no longer needs the scaffold at 2 Sheepwash Lane, Lowmoor, LM3 9QD. Please cancel the booking.');
+    expect(notice!.text).toContain('Booked: up 2027-02-26, down 2027-03-04');
+  });
+
+  it('does not mail the supplier when the office cancels a booking that was only requested', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'cancelled', version: booking.version }).expect(200);
+    expect(mailsTo('hire@loftypoles.example')).toHaveLength(0);
+  });
+
+  it('cancels a confirmed booking with its job, withdraws the dates asked of the supplier and tells them in writing', async () => {
+    const booking = await confirm((await book()).body as AccessBookingDto);
+    await moveJob('2027-03-10');
+    const token = linkToken();
+    await cancelJob();
+    expect(await bookingNow(booking.id)).toMatchObject({ state: 'cancelled', cancelledBecause: 'job-cancelled', pendingChange: null });
+    const mails = mailsTo('hire@loftypoles.example');
+    expect(mails.map((m) => m.subject)).toEqual(['Date change for scaffold at 2 Sheepwash Lane, Lowmoor, LM3 9QD', 'Cancelled: scaffold at 2 Sheepwash Lane, Lowmoor, LM3 9QD']);
+    expect(mails[1]!.text).toContain('Booked: up 2027-02-26, down 2027-03-04');
+    const answer = await request(h.app).post(`/api/public/supplier-links/${token}`).send({ answer: 'accept' }).expect(409);
+    expect(answer.body.detail).toContain('cancelled this booking');
+    expect((await auditOf(booking.id)).at(-1)).toEqual({ action: 'cancelled-with-job', after: { state: 'cancelled', reason: 'job-cancelled' } });
+  });
+
+  it('cancels a requested booking with its job without mailing anyone', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await cancelJob();
+    expect(await bookingNow(booking.id)).toMatchObject({ state: 'cancelled', cancelledBecause: 'job-cancelled' });
+    expect(mailsTo('hire@loftypoles.example')).toHaveLength(0);
+  });
+
+  it('leaves a scaffold that is already up standing when its job is cancelled, flagged for the office to have it struck', async () => {
+    const booking = await confirm((await book()).body as AccessBookingDto);
+    h.now.value = new Date('2027-02-26T15:00:00Z');
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: booking.version }).expect(200);
+    await cancelJob();
+    expect(await bookingNow(booking.id)).toMatchObject({ state: 'erected', hasNoWork: true, cancelledBecause: null });
+    expect(mailsTo('hire@loftypoles.example')).toHaveLength(0);
+  });
+
+  it('keeps a booking shared with a neighbouring job when one of the jobs is cancelled, and follows the job left', async () => {
+    const next = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Rebuild barn chimney', workTypes: ['repairs'], estimatedWorkingDays: 2 }).expect(201);
+    await request(h.app).post(`/api/jobs/${next.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: next.body.id, crewId: ids.crewId, startDate: '2027-03-08' }).expect(201);
+    const shared = (await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId, next.body.id], accessType: 'scaffold', supplierId }).expect(201)).body as AccessBookingDto;
+    // Mon 1 – Wed 3 and Mon 8 – Tue 9 March: up Fri 26 Feb, down Wed 10 March.
+    expect(shared).toMatchObject({ requestedErect: '2027-02-26', requestedStrike: '2027-03-10' });
+    await cancelJob();
+    // Only Mon 8 – Tue 9 March left: up Fri 5, down Wed 10.
+    expect(await bookingNow(shared.id)).toMatchObject({ state: 'requested', jobIds: [next.body.id], requestedErect: '2027-03-05', requestedStrike: '2027-03-10', hasNoWork: false });
+  });
+});
+
 describe('hire cost', () => {
   it('charges part weeks as whole weeks and never less than the minimum', async () => {
     const booking = (await book()).body as AccessBookingDto;

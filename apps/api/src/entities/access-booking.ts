@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, VersionColumn, type Relation } from 'typeorm';
-import type { AccessState, AccessType } from '@hodboard/shared';
+import type { AccessCancelReason, AccessState, AccessType } from '@hodboard/shared';
 import { Supplier } from './supplier.js';
 
 /** Hire of scaffold or other access for one job, or for neighbouring jobs at one site. */
@@ -46,6 +46,10 @@ export class AccessBooking {
 
   @Column({ name: 'struck_on', type: 'date', nullable: true })
   struckOn: string | null;
+
+  /** Set when Hodboard cancelled the booking because its jobs no longer need it; null when the office did. */
+  @Column({ name: 'cancelled_reason', type: 'text', nullable: true })
+  cancelledReason: AccessCancelReason | null;
 
   @Column({ name: 'weekly_rate', type: 'int' })
   weeklyRate: number;

@@ -15,6 +15,7 @@ import {
   type AccessBandDto,
   type AccessBookingDto,
   type AccessBookingValues,
+  type AccessCancelReason,
   type AccessChangeRequestDto,
   type AccessState,
   type BoardJobDto,
@@ -228,7 +229,14 @@ export class AccessService {
         throw errors.illegalTransition(`A booking that is ${booking.state} cannot become ${input.state}.`);
       }
       const before = { ...booking };
+      const wasAgreed = booking.state === 'confirmed';
       booking.state = input.state;
+      booking.cancelledReason = null;
+      if (input.state === 'requested') {
+        // A request follows its jobs, so one made again asks for the window they need now.
+        const needed = await this.neededWindow(manager, actor.firmId, booking.jobIds, booking.curingDays, await loadCalendars(manager, actor.firmId));
+        if (needed) Object.assign(booking, { requestedErect: needed.erect, requestedStrike: needed.strike });
+      }
       if (input.state === 'confirmed') {
         booking.confirmedErect = input.confirmedErect ?? booking.requestedErect;
         booking.confirmedStrike = input.confirmedStrike ?? booking.requestedStrike;
@@ -242,9 +250,13 @@ export class AccessService {
       // Dates asked of the supplier mean nothing once the booking is no longer agreed with them.
       if (!ANSWERABLE_STATES.has(input.state)) await this.closeOpenRequests(manager, id, 'withdrawn');
       await recordAudit(manager, actor, { entity: 'access-booking', entityId: id, action: `state-${input.state}`, before, after: saved });
-      return saved;
+      // The supplier holds agreed dates for a confirmed booking, so its cancellation is put to them in writing.
+      const notice = wasAgreed && input.state === 'cancelled' ? await this.cancellationMail(manager, saved) : null;
+      return { saved, notice };
     });
-    this.publish(actor.firmId, 'access:updated', booking);
+    this.publish(actor.firmId, 'access:updated', booking.saved);
+    // Committed already: a mail that fails to go must not turn the cancellation into an error.
+    if (booking.notice) await this.mailer.send(booking.notice).catch(() => undefined);
     return this.get(actor, id);
   }
 
@@ -360,7 +372,7 @@ export class AccessService {
    */
   async onScheduleChanged(manager: EntityManager, actor: Actor, jobIds: string[], calendars: FirmCalendars): Promise<AfterCommit[]> {
     const scope = new FirmScope(manager, actor.firmId);
-    const afterCommit: AfterCommit[] = [];
+    const afterCommit: AfterCommit[] = await this.cancelRequestsWithoutWork(manager, actor, jobIds);
     for (const { booking, effect, wanted } of await this.accessChangesFor(manager, actor.firmId, jobIds, calendars, new Map(), true)) {
       if (effect === 'follows') {
         const before = { requestedErect: booking.requestedErect, requestedStrike: booking.requestedStrike };
@@ -435,6 +447,71 @@ export class AccessService {
       plans.push({ booking, effect: 'asks-supplier', wanted });
     }
     return plans;
+  }
+
+  /**
+   * Called inside the transaction that cancels a job. A booking shared with other jobs drops the job and follows the
+   * rest; one that served only this job is cancelled, and its supplier told if the dates were agreed. One already up
+   * stays as it is, flagged, until the office has it struck.
+   */
+  async onJobCancelled(manager: EntityManager, actor: Actor, jobId: string, calendars: FirmCalendars): Promise<AfterCommit[]> {
+    const bookings = await new FirmScope(manager, actor.firmId)
+      .query(AccessBooking, 'b')
+      .andWhere(':jobId = ANY(b.job_ids)', { jobId })
+      .andWhere('b.state IN (:...states)', { states: [...LIVE_STATES] })
+      .setLock('pessimistic_write')
+      .getMany();
+    const afterCommit: AfterCommit[] = [];
+    const stillNeededBy = new Set<string>();
+    for (const booking of bookings) {
+      const others = booking.jobIds.filter((id) => id !== jobId);
+      if (others.length > 0) {
+        const before = { jobIds: booking.jobIds };
+        booking.jobIds = others;
+        await manager.save(booking);
+        await recordAudit(manager, actor, { entity: 'access-booking', entityId: booking.id, action: 'job-cancelled', before, after: { jobIds: others } });
+        others.forEach((id) => stillNeededBy.add(id));
+        afterCommit.push(async () => this.publish(actor.firmId, 'access:updated', booking));
+      } else if (booking.state !== 'erected') {
+        afterCommit.push(await this.cancelForLostWork(manager, actor, booking, 'job-cancelled'));
+      }
+    }
+    if (stillNeededBy.size > 0) afterCommit.push(...(await this.onScheduleChanged(manager, actor, [...stillNeededBy], calendars)));
+    return afterCommit;
+  }
+
+  /** Requested bookings none of whose jobs has days on the board any more: nothing was agreed, so they lapse. */
+  private async cancelRequestsWithoutWork(manager: EntityManager, actor: Actor, jobIds: string[]): Promise<AfterCommit[]> {
+    if (jobIds.length === 0) return [];
+    const requested = await new FirmScope(manager, actor.firmId)
+      .query(AccessBooking, 'b')
+      .andWhere('b.job_ids && :jobIds::uuid[]', { jobIds: [...new Set(jobIds)] })
+      .andWhere("b.state = 'requested'")
+      .setLock('pessimistic_write')
+      .getMany();
+    if (requested.length === 0) return [];
+    const daysOf = await this.jobDays(manager, actor.firmId, requested.flatMap((b) => b.jobIds));
+    const afterCommit: AfterCommit[] = [];
+    for (const booking of requested) {
+      if (booking.jobIds.some((id) => (daysOf.get(id) ?? []).length > 0)) continue;
+      afterCommit.push(await this.cancelForLostWork(manager, actor, booking, 'job-unscheduled'));
+    }
+    return afterCommit;
+  }
+
+  private async cancelForLostWork(manager: EntityManager, actor: Actor, booking: AccessBooking, reason: AccessCancelReason): Promise<AfterCommit> {
+    const before = { state: booking.state };
+    const wasAgreed = booking.state === 'confirmed';
+    booking.state = 'cancelled';
+    booking.cancelledReason = reason;
+    await manager.save(booking);
+    await this.closeOpenRequests(manager, booking.id, 'withdrawn');
+    await recordAudit(manager, actor, { entity: 'access-booking', entityId: booking.id, action: 'cancelled-with-job', before, after: { state: 'cancelled', reason } });
+    const notice = wasAgreed ? await this.cancellationMail(manager, booking) : null;
+    return async () => {
+      this.publish(actor.firmId, 'access:updated', booking);
+      if (notice) await this.mailer.send(notice);
+    };
   }
 
   /** What a supplier sees behind the link in their e-mail; no sign-in, only this one request. */
@@ -593,15 +670,46 @@ export class AccessService {
     return { request, booking };
   }
 
-  private async changeRequestMail(manager: EntityManager, booking: AccessBooking, request: AccessChangeRequest, token: string): Promise<MailMessage | null> {
+  /** Who is written to about a booking, and how the booking is named to them; null when the supplier has no e-mail. */
+  private async mailContext(manager: EntityManager, booking: AccessBooking) {
     const supplier = await manager.findOneByOrFail(Supplier, { id: booking.supplierId });
     if (!supplier.email) return null;
     const firm = await manager.findOneByOrFail(Firm, { id: booking.firmId });
     const jobs = await manager.find(Job, { where: { id: In(booking.jobIds), firmId: booking.firmId } });
     const site = jobs[0] ? await manager.findOneBy(Site, { id: jobs[0].siteId }) : null;
+    return { supplier: { ...supplier, email: supplier.email }, firm, kind: accessTypeLabels[booking.accessType].toLowerCase(), where: site ? formatAddress(site) : 'the site' };
+  }
+
+  private async cancellationMail(manager: EntityManager, booking: AccessBooking): Promise<MailMessage | null> {
+    const context = await this.mailContext(manager, booking);
+    if (!context) return null;
+    const { supplier, firm, kind, where } = context;
+    const contact = [firm.phone, firm.email].filter(Boolean).join(' or ');
+    const text = [
+      `Hello ${supplier.contactName ?? supplier.name},`,
+      '',
+      `${firm.name} no longer needs the ${kind} at ${where}${booking.reference ? ` (your ref ${booking.reference})` : ''}. Please cancel the booking.`,
+      '',
+      `Booked: up ${booking.confirmedErect ?? '-'}, down ${booking.confirmedStrike ?? '-'}`,
+      '',
+      `If anything is owed for the cancellation, or you have questions, contact ${firm.name}${contact ? ` on ${contact}` : ''}.`,
+      '',
+      `Thank you,`,
+      firm.name,
+    ].join('\n');
+    const html = `<p>Hello ${escapeHtml(supplier.contactName ?? supplier.name)},</p>
+<p>${escapeHtml(firm.name)} no longer needs the ${kind} at ${escapeHtml(where)}${booking.reference ? ` (your ref ${escapeHtml(booking.reference)})` : ''}. <strong>Please cancel the booking.</strong></p>
+<p>Booked: up ${booking.confirmedErect ?? '-'}, down ${booking.confirmedStrike ?? '-'}</p>
+<p>If anything is owed for the cancellation, or you have questions, contact ${escapeHtml(firm.name)}${contact ? ` on ${escapeHtml(contact)}` : ''}.</p>
+<p>Thank you,<br>${escapeHtml(firm.name)}</p>`;
+    return { to: supplier.email, subject: `Cancelled: ${kind} at ${where}`, text, html };
+  }
+
+  private async changeRequestMail(manager: EntityManager, booking: AccessBooking, request: AccessChangeRequest, token: string): Promise<MailMessage | null> {
+    const context = await this.mailContext(manager, booking);
+    if (!context) return null;
+    const { supplier, firm, kind, where } = context;
     const link = `${this.appUrl}/supplier-response?token=${encodeURIComponent(token)}`;
-    const kind = accessTypeLabels[booking.accessType].toLowerCase();
-    const where = site ? formatAddress(site) : 'the site';
     const text = [
       `Hello ${supplier.contactName ?? supplier.name},`,
       '',
@@ -754,6 +862,7 @@ export class AccessService {
     const today = todayIn(calendars.timeZone, this.clock());
     const jobs = await new FirmScope(manager, firmId).find(Job, { where: { id: In([...new Set(bookings.flatMap((b) => b.jobIds))]) } });
     const references = new Map(jobs.map((job) => [job.id, job.reference]));
+    const cancelledJobs = new Set(jobs.filter((job) => job.status === 'cancelled').map((job) => job.id));
     const inspections = await this.inspectionsByBooking(manager, firmId, bookings.map((b) => b.id));
     const adverse = await this.adverseDaysByBooking(manager, firmId, bookings, calendars.timeZone, today);
     const pending = await new FirmScope(manager, firmId).find(AccessChangeRequest, { where: { bookingId: In(bookings.map((b) => b.id)), status: In(['pending', 'countered']) }, order: { createdAt: 'DESC' } });
@@ -770,7 +879,10 @@ export class AccessService {
         weeklyRate: booking.weeklyRate, minimumWeeks: booking.minimumWeeks, curingDays: booking.curingDays,
         reference: booking.reference, notes: booking.notes, hire: hireFor(booking),
         inspection: inspectionStatus(booking, inspections.get(booking.id) ?? [], today, adverse.get(booking.id)),
-        pendingChange: change ? toChangeDto(change) : null, version: booking.version,
+        pendingChange: change ? toChangeDto(change) : null,
+        hasNoWork: LIVE_STATES.has(booking.state) && (!needed || booking.jobIds.every((id) => cancelledJobs.has(id))),
+        cancelledBecause: booking.state === 'cancelled' ? booking.cancelledReason : null,
+        version: booking.version,
       });
     }
     return result;

@@ -14,8 +14,10 @@ import type { z } from 'zod';
 import { Assignment, AuditEvent, Client, Crew, Job, Site, User } from '../entities/index.js';
 import { errors } from '../errors.js';
 import type { EventBus } from '../lib/event-bus.js';
+import type { AccessService, AfterCommit } from './access-service.js';
 import { requirePermission, type Actor } from './actor.js';
 import { recordAudit } from './audit-service.js';
+import { loadCalendars } from './calendar-service.js';
 import { assertVersion, FirmScope } from './firm-scope.js';
 import { paginate } from './paging.js';
 import { formatAddress } from './site-service.js';
@@ -26,6 +28,7 @@ export class JobService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly events: EventBus,
+    private readonly access?: AccessService,
   ) {}
 
   async list(actor: Actor, query: JobListQuery): Promise<Page<JobDto>> {
@@ -92,6 +95,7 @@ export class JobService {
 
   async changeStatus(actor: Actor, id: string, input: JobStatusChangeInput): Promise<JobDto> {
     requirePermission(actor, 'jobs:manage');
+    const afterCommit: AfterCommit[] = [];
     const job = await this.dataSource.transaction(async (manager) => {
       const scope = new FirmScope(manager, actor.firmId);
       const existing = await scope.lockForUpdate(Job, id, 'Job');
@@ -112,9 +116,14 @@ export class JobService {
       existing.status = input.status;
       const saved = await manager.save(existing);
       await recordAudit(manager, actor, { entity: 'job', entityId: id, action: 'status-changed', before, after: { status: saved.status } });
+      if (saved.status === 'cancelled' && this.access) {
+        afterCommit.push(...(await this.access.onJobCancelled(manager, actor, id, await loadCalendars(manager, actor.firmId))));
+      }
       return saved;
     });
     this.events.publish({ firmId: actor.firmId, type: 'job:updated', id, version: job.version });
+    // The job is cancelled whatever happens to a supplier's e-mail after commit.
+    for (const task of afterCommit) await task().catch(() => undefined);
     return this.get(actor, id);
   }
 

@@ -17,7 +17,7 @@ const api = vi.hoisted(() => ({
 }));
 vi.mock('@/api/access', () => api);
 
-const { bandOf, useAccessStore } = await import('./access-store');
+const { accessWorkNotice, bandOf, useAccessStore } = await import('./access-store');
 
 const jobA = 'bbbbbbbb-0000-4000-8000-000000000001';
 const jobB = 'bbbbbbbb-0000-4000-8000-000000000002';
@@ -29,7 +29,7 @@ function booking(id: string, overrides: Partial<AccessBookingDto> = {}): AccessB
     neededErect: '2027-03-01', neededStrike: '2027-03-12', weeklyRate: 18_000, minimumWeeks: 2, curingDays: 0, reference: null, notes: null,
     hire: { erect: '2027-03-01', strike: '2027-03-12', hireDays: 12, chargedWeeks: 2, pence: 36_000, pricedWeeks: 2, overPricedPence: 0 },
     inspection: { status: 'none', nextDue: null, lastInspectedOn: null, reasons: [], source: null, adverseDays: [] },
-    pendingChange: null, version: 1, ...overrides,
+    pendingChange: null, hasNoWork: false, cancelledBecause: null, version: 1, ...overrides,
   };
 }
 
@@ -53,6 +53,23 @@ describe('access store', () => {
 
   it.each(['struck', 'cancelled'] as const)('draws no band for a %s booking', (state) => {
     expect(bandOf(booking('a', { state }))).toBeNull();
+  });
+
+  it.each([
+    ['a confirmed booking left without work', { state: 'confirmed', hasNoWork: true, confirmedErect: '2027-03-01' }, 'Scaffold still booked', /Tallpole Hire still holds the dates\. Cancel the booking to tell them/, true],
+    ['a scaffold up without work', { state: 'erected', hasNoWork: true, confirmedErect: '2027-03-01' }, 'Scaffold up, no work on the board', /Arrange the strike with Tallpole Hire/, true],
+    ['a request that lapsed with the tray', { state: 'cancelled', cancelledBecause: 'job-unscheduled' }, 'Scaffold request lapsed', /went back to the tray/, false],
+    ['a confirmed booking cancelled with its job', { state: 'cancelled', cancelledBecause: 'job-cancelled', confirmedErect: '2027-03-01' }, 'Scaffold cancelled with the job', /Tallpole Hire was e-mailed/, false],
+  ] as const)('names %s', (_name, overrides, short, long, isWarn) => {
+    const notice = accessWorkNotice(booking('a', overrides as Partial<AccessBookingDto>));
+    expect(notice).toMatchObject({ short, isWarn });
+    expect(notice!.long).toMatch(long);
+  });
+
+  it('says nothing of a booking in step with its work, or one the office cancelled itself', () => {
+    expect(accessWorkNotice(booking('a'))).toBeNull();
+    expect(accessWorkNotice(booking('a', { state: 'cancelled' }))).toBeNull();
+    expect(accessWorkNotice(booking('a', { state: 'cancelled', cancelledBecause: 'job-cancelled' }))!.long).toBe('Cancelled with the job.');
   });
 
   it('lists a booking shared by two jobs under both jobs', async () => {

@@ -1,5 +1,6 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
+import { accessTypeLabels } from '@hodboard/shared';
 import type {
   AccessBookingDto,
   AccessBookingInput,
@@ -67,6 +68,36 @@ export const inspectionStatusLabels: Record<InspectionStatusDto['status'], strin
   overdue: 'Inspection overdue',
   unsafe: 'Marked not safe',
 };
+
+export interface AccessWorkNotice {
+  /** A few words for a tray card. */
+  short: string;
+  /** What happened and what the office should do, for the booking card. */
+  long: string;
+  isWarn: boolean;
+}
+
+/**
+ * A booking whose jobs no longer have days on the board: still booked (the supplier needs telling), or cancelled by
+ * Hodboard with its jobs. Null for a booking in step with its work.
+ */
+export function accessWorkNotice(booking: AccessBookingDto): AccessWorkNotice | null {
+  const kind = accessTypeLabels[booking.accessType];
+  if (booking.hasNoWork && booking.state === 'erected') {
+    return { short: `${kind} up, no work on the board`, long: `The ${kind.toLowerCase()} is up but none of its work is on the board. Arrange the strike with ${booking.supplierName}, then mark it struck.`, isWarn: true };
+  }
+  if (booking.hasNoWork) {
+    return { short: `${kind} still booked`, long: `None of this booking's work is on the board, but ${booking.supplierName} still holds the dates. Cancel the booking to tell them, or put the job back on the board.`, isWarn: true };
+  }
+  if (booking.cancelledBecause === 'job-unscheduled') {
+    return { short: `${kind} request lapsed`, long: `Cancelled when the job went back to the tray. Request it again once the job is on the board.`, isWarn: false };
+  }
+  if (booking.cancelledBecause === 'job-cancelled') {
+    const told = booking.confirmedErect ? ` ${booking.supplierName} was e-mailed to cancel it.` : '';
+    return { short: `${kind} cancelled with the job`, long: `Cancelled with the job.${told}`, isWarn: false };
+  }
+  return null;
+}
 
 export const useAccessStore = defineStore('access', () => {
   const suppliers = shallowRef<SupplierDto[]>([]);

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { idSchema, isoDateSchema, optionalEmailSchema, optionalText, pageQuerySchema, requiredText } from './common.js';
 import type { PhotoDto } from './photos.js';
-import { accessStates, accessTypes, type AccessState, type AccessType } from '../terms/access.js';
+import { accessStates, accessTypes, type AccessCancelReason, type AccessState, type AccessType } from '../terms/access.js';
 
 export const accessTypeSchema = z.enum(accessTypes);
 
@@ -148,6 +148,10 @@ export interface AccessBookingDto {
   hire: HireCostDto | null;
   inspection: InspectionStatusDto;
   pendingChange: AccessChangeRequestDto | null;
+  /** Still booked, but none of its jobs has days on the board (or all were cancelled): the supplier needs telling. */
+  hasNoWork: boolean;
+  /** Cancelled by Hodboard when its jobs left the board or were cancelled; null if the office cancelled it, or it is live. */
+  cancelledBecause: AccessCancelReason | null;
   version: number;
 }
 

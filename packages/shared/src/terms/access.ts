@@ -20,5 +20,9 @@ export const accessStateLabels: Record<AccessState, string> = {
   cancelled: 'Cancelled',
 };
 
+/** Why Hodboard itself cancelled a booking: every job it served left the board or was cancelled. */
+export const accessCancelReasons = ['job-unscheduled', 'job-cancelled'] as const;
+export type AccessCancelReason = (typeof accessCancelReasons)[number];
+
 export const ACCESS_SAFETY_NOTE =
   'Scaffolds are erected, altered, inspected and struck only by competent, trained people. Inspection duties and intervals differ between countries: follow your local regulations and the scaffold supplier.';
