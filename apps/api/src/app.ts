@@ -154,7 +154,7 @@ export function createServices(deps: AppDeps): AppServices {
     crews: new CrewService(deps.dataSource, events),
     clients: new ClientService(deps.dataSource, events),
     sites: new SiteService(deps.dataSource, events),
-    jobs: new JobService(deps.dataSource, events),
+    jobs: new JobService(deps.dataSource, events, access),
     firms: new FirmService(deps.dataSource, events),
     schedule,
     boards: new BoardCache(schedule, events, deps.clock),
