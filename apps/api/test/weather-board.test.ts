@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
-import type { BoardDto, ForecastHour } from '@hodboard/shared';
+import type { BoardDto, ForecastHour, WeatherHoldDto } from '@hodboard/shared';
 import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
 import type { ForecastProvider } from '../src/services/weather/forecast-provider.js';
 import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
@@ -78,5 +78,37 @@ describe('the reasons behind a verdict', () => {
     expect(cold.at!.slice(0, 10)).toBe('2027-03-25');
     expect(scenarioHour('hard-frost', cold.at!)?.tempC).toBe(cold.observed);
     expect(day.reasons.find((r) => r.ruleId === 'day.usable-hours')).toMatchObject({ unit: 'h', at: null, observed: 0 });
+  });
+});
+
+describe('stood-down days on the board', () => {
+  const raise = (dates: string[], reason = 'wind') =>
+    request(h.app).post('/api/weather-holds').set(owner.auth).send({ jobId: ids.jobId, dates, reason }).expect(201);
+
+  it('marks a held day on the board read straight after the stand-down, and only on the crew that has the job', async () => {
+    // Read first, so the board is cached; the stand-down must move the firm's board on.
+    expect((await board()).holdDays).toEqual([]);
+    const hold = (await raise(['2027-03-30'])).body as WeatherHoldDto;
+    const view = await board();
+    expect(view.holdDays).toEqual([{ holdId: hold.id, jobId: ids.jobId, date: '2027-03-30', reason: 'wind', status: 'open' }]);
+    const other = await request(h.app).post('/api/crews').set(owner.auth).send({ name: 'Ridge crew', colour: '#335577' }).expect(201);
+    const otherBoard = await request(h.app).get('/api/board').query({ from: '2027-03-22', to: '2027-04-09', crewId: other.body.id }).set(owner.auth).expect(200);
+    expect((otherBoard.body as BoardDto).holdDays).toEqual([]);
+    const outside = await request(h.app).get('/api/board').query({ from: '2027-04-05', to: '2027-04-09' }).set(owner.auth).expect(200);
+    expect((outside.body as BoardDto).holdDays).toEqual([]);
+  });
+
+  it('leaves out a stand-down that was withdrawn', async () => {
+    const hold = (await raise(['2027-03-25', '2027-03-30'], 'rain')).body as WeatherHoldDto;
+    expect((await board()).holdDays.map((d) => d.date)).toEqual(['2027-03-25', '2027-03-30']);
+    await h.dataSource.query(`UPDATE weather_hold SET status = 'withdrawn' WHERE id = $1`, [hold.id]);
+    h.services.boards.invalidate();
+    expect((await board()).holdDays).toEqual([]);
+  });
+
+  it('still shows the day lost once the stand-down is re-planned', async () => {
+    const hold = (await raise(['2027-03-25'])).body as WeatherHoldDto;
+    await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'none', version: hold.version }).expect(200);
+    expect((await board()).holdDays).toEqual([{ holdId: hold.id, jobId: ids.jobId, date: '2027-03-25', reason: 'wind', status: 'replanned' }]);
   });
 });

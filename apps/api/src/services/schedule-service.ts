@@ -8,6 +8,7 @@ import {
   type AssignmentDto,
   type BoardAssignmentDto,
   type BoardDto,
+  type BoardHoldDayDto,
   type BoardJobDto,
   type BoardQuery,
   type DayWeatherDto,
@@ -53,12 +54,13 @@ export class ScheduleService {
     const ownCrews = isOffice ? null : actor.crewIds;
     const crewFilter = query.crewId ? (ownCrews && !ownCrews.includes(query.crewId) ? [] : [query.crewId]) : ownCrews;
     // The board is the hottest read: plain queries (no entity hydration), run side by side on the pool.
-    const [crews, calendars, placed, trayRows, lastEvent] = await Promise.all([
+    const [crews, calendars, placed, trayRows, lastEvent, holdDays] = await Promise.all([
       scope.find(Crew, { where: crewFilter ? { id: In(crewFilter) } : {}, order: { name: 'ASC' } }),
       loadCalendars(manager, actor.firmId),
       crewFilter?.length === 0 ? [] : placedRows(manager, actor.firmId, crewFilter, query.from, query.to),
       isOffice ? trayRowsOf(manager, actor.firmId) : [],
       scope.query(ScheduleEvent, 'e').select('MAX(e.id)', 'max').getRawOne<{ max: string | null }>(),
+      crewFilter?.length === 0 ? [] : holdDayRows(manager, actor.firmId, crewFilter, query.from, query.to),
     ]);
     // One object per card serves the rules and the response alike.
     const assignments = placed.map(toBoardAssignment);
@@ -97,6 +99,7 @@ export class ScheduleService {
         .map((job) => job.id),
       ...assessed,
       accessBands,
+      holdDays,
       lastEventId: Number(lastEvent?.max ?? 0),
     };
   }
@@ -527,6 +530,24 @@ async function trayRowsOf(manager: EntityManager, firmId: string): Promise<Board
     [firmId, [...SCHEDULABLE]],
   )) as Array<Encoded<BoardJobRow>>;
   return rows.map((row) => decodeRow(row));
+}
+
+/**
+ * The stood-down days in range of the jobs placed on these crews, in one plain query. Each job-day comes once even
+ * if two stand-downs name it (rows from before overlaps were refused), an open one before a settled one.
+ */
+async function holdDayRows(manager: EntityManager, firmId: string, crewIds: string[] | null, from: string, to: string): Promise<BoardHoldDayDto[]> {
+  const rows = (await manager.query(
+    `SELECT DISTINCT ON (h.job_id, d.day) h.id, h.job_id, to_char(d.day, 'YYYY-MM-DD') AS date, h.reason, h.status
+       FROM weather_hold h
+       JOIN assignment a ON a.job_id = h.job_id AND a.firm_id = h.firm_id
+       CROSS JOIN LATERAL unnest(h.dates) AS d(day)
+      WHERE h.firm_id = $1 AND h.status IN ('open', 'replanned') AND ($2::uuid[] IS NULL OR a.crew_id = ANY($2::uuid[]))
+        AND a.start_date <= $4 AND a.end_date >= $3 AND d.day BETWEEN $3 AND $4
+      ORDER BY h.job_id, d.day, h.status = 'open' DESC, h.raised_at DESC`,
+    [firmId, crewIds, from, to],
+  )) as Array<{ id: string; job_id: string; date: string; reason: BoardHoldDayDto['reason']; status: BoardHoldDayDto['status'] }>;
+  return rows.map((row) => ({ holdId: row.id, jobId: row.job_id, date: row.date, reason: row.reason, status: row.status }));
 }
 
 interface ChangeToDescribe {

@@ -18,8 +18,8 @@ function describe(message: ScheduleChangedMessage): string {
   return `${change.actorName} moved ${ref}.`;
 }
 
-/** Records that change what the board draws (a job's status, leave, a crew) without being schedule changes. */
-const reloadingTypes = /^(job|time-off|crew|firm|access)[:.]/;
+/** Records that change what the board draws (a job's status, leave, a crew, a stood-down day) without being schedule changes. */
+const reloadingTypes = /^(job|time-off|crew|firm|access|hold)[:.]/;
 
 export function useBoardLive(): BoardLive {
   const store = useScheduleStore();

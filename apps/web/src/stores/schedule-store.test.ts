@@ -61,6 +61,7 @@ function board(): BoardDto {
     conflicts: [conflict('as-1', 'job-1', 'Booked twice on Tue'), conflict('as-2', 'job-2', 'Booked twice on Tue')],
     accessBands: [],
     weather: [],
+    holdDays: [],
     lastEventId: 40,
   } as BoardDto;
 }

@@ -6,6 +6,7 @@ import {
   type BoardCrewDto,
   type BoardDayDto,
   type BoardDto,
+  type BoardHoldDayDto,
   type BoardJobDto,
   type ConflictDto,
   type ConflictKind,
@@ -83,6 +84,7 @@ export const useScheduleStore = defineStore('schedule', () => {
   const jobs = ref<Record<string, BoardJobDto>>({});
   const trayJobIds = ref<string[]>([]);
   const conflicts = shallowRef<ConflictDto[]>([]);
+  const holdDays = shallowRef<BoardHoldDayDto[]>([]);
   const lastEventId = ref(0);
   const isLoading = ref(false);
   const error = shallowRef<unknown>(null);
@@ -102,6 +104,14 @@ export const useScheduleStore = defineStore('schedule', () => {
     for (const assignment of Object.values(assignments.value)) byCrew.get(assignment.crewId)?.push(assignment);
     for (const list of byCrew.values()) list.sort((a, b) => a.startDate.localeCompare(b.startDate) || a.id.localeCompare(b.id));
     return byCrew;
+  });
+
+  /** Stood-down days by job, in date order. */
+  const holdDaysByJob = computed(() => {
+    const byJob = new Map<string, BoardHoldDayDto[]>();
+    for (const day of holdDays.value) byJob.set(day.jobId, [...(byJob.get(day.jobId) ?? []), day]);
+    for (const list of byJob.values()) list.sort((a, b) => a.date.localeCompare(b.date));
+    return byJob;
   });
 
   const conflictsByAssignment = computed(() => {
@@ -241,6 +251,7 @@ export const useScheduleStore = defineStore('schedule', () => {
     jobs.value = { ...board.jobs };
     trayJobIds.value = [...board.trayJobIds];
     conflicts.value = board.conflicts;
+    holdDays.value = board.holdDays;
     lastEventId.value = board.lastEventId;
   }
 
@@ -345,7 +356,7 @@ export const useScheduleStore = defineStore('schedule', () => {
   function clear(): void {
     loadSeq += 1;
     range.value = null;
-    applyBoard({ from: '', to: '', days: [], crews: [], assignments: [], jobs: {}, trayJobIds: [], conflicts: [], lastEventId: 0 } as unknown as BoardDto);
+    applyBoard({ from: '', to: '', days: [], crews: [], assignments: [], jobs: {}, trayJobIds: [], conflicts: [], holdDays: [], lastEventId: 0 } as unknown as BoardDto);
     error.value = null;
   }
 
@@ -357,12 +368,14 @@ export const useScheduleStore = defineStore('schedule', () => {
     jobs,
     trayJobIds,
     conflicts,
+    holdDays,
     lastEventId,
     isLoading,
     error,
     savingIds,
     assignmentsByCrew,
     conflictsByAssignment,
+    holdDaysByJob,
     conflictGroups,
     conflictCounts,
     trayJobs,

@@ -3,6 +3,7 @@ import { idSchema, isoDateSchema, optionalText, requiredText } from './common.js
 import type { JobDto } from './jobs.js';
 import type { AccessBandDto } from './access.js';
 import type { DayWeatherDto } from './weather.js';
+import type { HoldReason } from '../terms/weather.js';
 
 export const boardQuerySchema = z
   .object({
@@ -110,6 +111,16 @@ export type BoardJobDto = Pick<
   'id' | 'reference' | 'title' | 'clientName' | 'siteAddress' | 'status' | 'estimatedWorkingDays' | 'workTypes' | 'accessNeeds' | 'earliestStart' | 'targetFinish' | 'priority' | 'version'
 >;
 
+/** A job-day stood down for the weather, as the board marks it. */
+export interface BoardHoldDayDto {
+  holdId: string;
+  jobId: string;
+  date: string;
+  reason: HoldReason;
+  /** Open: waiting for the office to re-plan; replanned: settled, kept so the lost day still shows. */
+  status: 'open' | 'replanned';
+}
+
 export interface BoardDto {
   from: string;
   to: string;
@@ -125,6 +136,8 @@ export interface BoardDto {
   accessBands: AccessBandDto[];
   /** The weather verdict of each scheduled job-day that has a forecast. */
   weather: DayWeatherDto[];
+  /** Days in range stood down on the jobs shown (withdrawn stand-downs left out), one per job and day. */
+  holdDays: BoardHoldDayDto[];
   /** The newest schedule event included; a reconnecting client asks for changes after it. */
   lastEventId: number;
 }

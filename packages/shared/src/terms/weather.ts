@@ -9,5 +9,10 @@ export const holdReasonLabels: Record<HoldReason, string> = {
   other: 'Other',
 };
 
+/** Why a day was stood down, as a sentence ends it: "for wind", "for frost or cold", "for another reason". */
+export function stoodDownFor(reason: HoldReason): string {
+  return reason === 'other' ? 'for another reason' : `for ${holdReasonLabels[reason].toLowerCase()}`;
+}
+
 export const WEATHER_SAFETY_NOTE =
   'Weather verdicts are guidance from the forecast, not a permit. The competent person on site decides whether work is safe, following local regulations, the manufacturer\'s limits and readings taken on site.';
