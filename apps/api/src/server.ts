@@ -43,8 +43,11 @@ server.listen(config.PORT, config.HOST, () => {
 });
 
 // Forecasts for sites with work this week, soon after start and then on a schedule; failures keep the last one.
-const refreshForecasts = () =>
-  services.forecasts.refreshAll().catch((error: unknown) => logger.error({ err: error }, 'forecast refresh failed'));
+// On the same beat, jobs whose stand-down days have passed with nothing moved go back to work.
+const refreshForecasts = async () => {
+  await services.forecasts.refreshAll().catch((error: unknown) => logger.error({ err: error }, 'forecast refresh failed'));
+  await services.weather.releasePassedStandDowns().catch((error: unknown) => logger.error({ err: error }, 'stand-down release failed'));
+};
 const firstRefresh = setTimeout(refreshForecasts, 2_000);
 const forecastTimer = setInterval(refreshForecasts, config.FORECAST_REFRESH_MINUTES * 60_000);
 forecastTimer.unref();

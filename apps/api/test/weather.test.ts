@@ -4,7 +4,7 @@ import type { AccessBookingDto, BoardDto, ForecastHour, ReplanPreviewDto, Weathe
 import { createWeatherFake } from '../src/fakes/weather-fake.js';
 import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
 import { HttpForecastProvider, HttpGeocoder, type ForecastProvider } from '../src/services/weather/forecast-provider.js';
-import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+import { addPerson, countRows, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 
 /** The same scenario files the local fake serves, in process, with a switch to make it fail. */
 class ScenarioProvider implements ForecastProvider {
@@ -27,7 +27,8 @@ beforeEach(async () => {
   const now = { value: new Date('2027-03-24T06:00:00Z') };
   provider = new ScenarioProvider(now);
   h = await createHarness({ forecastProvider: provider, geocoder: { locate: async () => ({ lat: 53.8, lon: -1.55 }) }, clock: () => now.value });
-  h.now.value = now.value;
+  // The harness clock is this one, so a test can move time through h.now.
+  h.now = now;
   await truncateAll(h.dataSource);
   owner = await signUpFirm(h, 'Heather Lane Masonry', 'owner@heather.example');
   ids = await populateFirm(h, owner);
@@ -185,6 +186,115 @@ describe('stand-downs and re-plans', () => {
     expect(preview.accessChanges).toEqual([expect.objectContaining({ effect: 'asks-supplier', toErect: '2027-03-25', toStrike: '2027-04-01' })]);
     await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }).expect(200);
     expect(h.mailer.outbox.filter((m) => m.to === 'desk@steadytube.example')).toHaveLength(1);
+  });
+});
+
+describe('settling a stand-down', () => {
+  const raise = (dates: string[], auth = owner.auth) => request(h.app).post('/api/weather-holds').set(auth).send({ jobId: ids.jobId, dates, reason: 'wind' });
+  const jobStatus = async () => (await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200)).body.status as string;
+  const commit = (hold: WeatherHoldDto, mode: string) => request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode, version: hold.version });
+  const withdraw = (hold: WeatherHoldDto, auth = owner.auth, version = hold.version) =>
+    request(h.app).post(`/api/weather-holds/${hold.id}/withdraw`).set(auth).send({ version, reason: 'The wind dropped' });
+  const summary = async () => (await request(h.app).get('/api/weather-holds/summary').set(owner.auth).expect(200)).body as { byJob: Array<{ jobId: string; days: number }>; byCrew: Array<{ crewId: string; days: number }> };
+
+  it('puts a job that was on site back on site once the re-plan is committed', async () => {
+    await request(h.app).post(`/api/jobs/${ids.jobId}/status`).set(owner.auth).send({ status: 'on-site' }).expect(200);
+    const hold = (await raise(['2027-03-30']).expect(201)).body as WeatherHoldDto;
+    expect(await jobStatus()).toBe('stood-down');
+    await commit(hold, 'push').expect(200);
+    expect(await jobStatus()).toBe('on-site');
+  });
+
+  it('keeps the job stood down with nothing moved only while a held day is today or ahead', async () => {
+    const hold = (await raise(['2027-03-25']).expect(201)).body as WeatherHoldDto;
+    await commit(hold, 'none').expect(200);
+    expect(await jobStatus()).toBe('stood-down');
+    expect(await h.services.weather.releasePassedStandDowns()).toBe(0);
+    h.now.value = new Date('2027-03-25T18:00:00Z');
+    expect(await h.services.weather.releasePassedStandDowns()).toBe(0);
+    h.now.value = new Date('2027-03-26T07:00:00Z');
+    expect(await h.services.weather.releasePassedStandDowns()).toBe(1);
+    expect(await jobStatus()).toBe('scheduled');
+    expect(await h.services.weather.releasePassedStandDowns()).toBe(0);
+    const history = (await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200)).body as Array<{ action: string }>;
+    expect(history.map((e) => e.action)).toContain('stand-down-ended');
+  });
+
+  it('withdraws a stand-down: the job goes back to work, the days stop counting, the crew is told, and it is written down', async () => {
+    const seen: Array<{ type: string; crewIds?: string[] }> = [];
+    const stop = h.services.events.subscribe((event) => void seen.push({ type: event.type, crewIds: event.crewIds }));
+    const hold = (await raise(['2027-03-25']).expect(201)).body as WeatherHoldDto;
+    expect((await summary()).byJob).toEqual([{ jobId: ids.jobId, days: 1 }]);
+    await withdraw(hold, owner.auth, hold.version + 1).expect(409);
+    const withdrawn = (await withdraw(hold).expect(200)).body as WeatherHoldDto;
+    stop();
+    expect(withdrawn).toMatchObject({ status: 'withdrawn', version: hold.version + 1 });
+    expect(await jobStatus()).toBe('scheduled');
+    expect((await summary()).byJob).toEqual([]);
+    expect(seen).toContainEqual({ type: 'hold:withdrawn', crewIds: [ids.crewId] });
+    const history = (await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200)).body as Array<{ action: string }>;
+    expect(history.map((e) => e.action)).toContain('stand-down-withdrawn');
+    const again = await withdraw(withdrawn).expect(409);
+    expect(again.headers['content-type']).toMatch(/application\/problem\+json/);
+    // Withdrawn, its day can be stood down again.
+    await raise(['2027-03-25']).expect(201);
+  });
+
+  it('refuses to withdraw a stand-down whose re-plan moved jobs', async () => {
+    const hold = (await raise(['2027-03-25']).expect(201)).body as WeatherHoldDto;
+    const replanned = (await commit(hold, 'push').expect(200), (await request(h.app).get('/api/weather-holds').set(owner.auth).expect(200)).body[0] as WeatherHoldDto);
+    expect(replanned).toMatchObject({ status: 'replanned', replanMode: 'push' });
+    const res = await withdraw(replanned).expect(409);
+    expect(res.body.code).toBe('conflict');
+  });
+
+  it('lets a crew lead withdraw on their own crew only, and never an operative', async () => {
+    const lead = await addPerson(h, owner, 'crew-lead', 'lead@heather.example');
+    const operative = await addPerson(h, owner, 'operative', 'op@heather.example');
+    const people = (await request(h.app).get('/api/people').set(owner.auth).expect(200)).body as Array<{ id: string; email: string }>;
+    const member = (email: string) => people.find((p) => p.email === email)!.id;
+    const hold = (await raise(['2027-03-25']).expect(201)).body as WeatherHoldDto;
+    await withdraw(hold, operative.auth).expect(403);
+    await withdraw(hold, lead.auth).expect(404);
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth)
+      .send({ name: 'Gable crew', colour: '#445566', leadMemberId: member('lead@heather.example'), memberIds: [member('lead@heather.example'), member('op@heather.example')] }).expect(200);
+    await withdraw(hold, operative.auth).expect(403);
+    await withdraw(hold, lead.auth).expect(200);
+  });
+
+  it('refuses a second stand-down of days already stood down with 409 and stores nothing', async () => {
+    await raise(['2027-03-25']).expect(201);
+    const before = await countRows(h.dataSource);
+    const res = await raise(['2027-03-25', '2027-03-30']).expect(409);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toMatchObject({ code: 'conflict', status: 409 });
+    expect(res.body.detail).toMatch(/already stood down on Thu 25 Mar/);
+    expect(await countRows(h.dataSource)).toEqual(before);
+    await raise(['2027-03-30']).expect(201);
+    expect((await summary()).byJob).toEqual([{ jobId: ids.jobId, days: 2 }]);
+  });
+
+  it('stores one of two stand-downs of the same day sent at once and refuses the other', async () => {
+    const [a, b] = await Promise.all([raise(['2027-03-25']), raise(['2027-03-25'])]);
+    expect([a.status, b.status].sort()).toEqual([201, 409]);
+    expect((await request(h.app).get('/api/weather-holds').set(owner.auth).expect(200)).body).toHaveLength(1);
+  });
+
+  it('counts a job-day once in the days lost however many stand-downs name it', async () => {
+    const hold = (await raise(['2027-03-25']).expect(201)).body as WeatherHoldDto;
+    // A second stand-down of the same day, as stored before overlaps were refused.
+    await h.dataSource.query(
+      `INSERT INTO weather_hold (firm_id, job_id, crew_id, dates, reason, raised_from, status, version) SELECT firm_id, job_id, crew_id, dates, 'rain', 'office', 'open', 1 FROM weather_hold WHERE id = $1`,
+      [hold.id],
+    );
+    expect(await summary()).toEqual({ byJob: [{ jobId: ids.jobId, days: 1 }], byCrew: [{ crewId: ids.crewId, days: 1 }] });
+  });
+
+  it('records when the forecast seen at the stand-down was fetched', async () => {
+    await refresh();
+    const hold = (await raise(['2027-03-25']).expect(201)).body as WeatherHoldDto;
+    expect(hold).toMatchObject({ forecastFetchedAt: '2027-03-24T06:00:00.000Z', forecastWasStale: false });
+    expect(hold.forecastSeen.length).toBeGreaterThan(0);
   });
 });
 

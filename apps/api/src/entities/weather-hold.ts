@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, VersionColumn } from 'typeorm';
-import type { ForecastSnapshotHour, HoldReason } from '@hodboard/shared';
+import type { ForecastSnapshotHour, HoldReason, JobStatus, ReplanMode } from '@hodboard/shared';
 
 @Entity({ name: 'weather_hold' })
 @Index(['firmId', 'jobId'])
@@ -37,6 +37,20 @@ export class WeatherHold {
 
   @Column({ name: 'forecast_seen', type: 'jsonb', default: () => "'[]'" })
   forecastSeen: ForecastSnapshotHour[];
+
+  /** When the forecast seen was fetched, and whether it was already past its refresh then. */
+  @Column({ name: 'forecast_fetched_at', type: 'timestamptz', nullable: true })
+  forecastFetchedAt: Date | null;
+
+  @Column({ name: 'forecast_was_stale', type: 'boolean', default: false })
+  forecastWasStale: boolean;
+
+  /** The job's status before it was stood down, to go back to once the stand-down is settled. */
+  @Column({ name: 'job_status_before', type: 'text', nullable: true })
+  jobStatusBefore: JobStatus | null;
+
+  @Column({ name: 'replan_mode', type: 'text', nullable: true })
+  replanMode: ReplanMode | null;
 
   @Column({ name: 'idempotency_key', type: 'text', nullable: true })
   idempotencyKey: string | null;

@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { forecastRefreshSchema, idParamsSchema, idSchema, replanSchema, weatherHoldInputSchema, weatherLimitsInputSchema } from '@hodboard/shared';
+import { forecastRefreshSchema, holdWithdrawSchema, idParamsSchema, idSchema, replanSchema, weatherHoldInputSchema, weatherLimitsInputSchema } from '@hodboard/shared';
 import { endpoint } from '../middleware/validate.js';
 import { requirePermission } from '../services/actor.js';
 import { FirmScope } from '../services/firm-scope.js';
@@ -26,6 +26,9 @@ export function weatherHoldsRouter(weather: WeatherService): Router {
   }));
   router.post('/:id/commit', ...endpoint({ params: idParamsSchema, body: replanSchema }, async ({ actor, params, body }, _req, res) => {
     res.json(await weather.commit(actor, params.id, body));
+  }));
+  router.post('/:id/withdraw', ...endpoint({ params: idParamsSchema, body: holdWithdrawSchema }, async ({ actor, params, body }, _req, res) => {
+    res.json(await weather.withdraw(actor, params.id, body));
   }));
   return router;
 }

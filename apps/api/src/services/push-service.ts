@@ -118,10 +118,12 @@ function messageFor(event: DomainEvent): PushMessageDto {
   const days = change.assignment?.days ?? [];
   const body = event.type === 'assignment:removed'
     ? `${job} is off your crew's days for now.`
-    : event.type.startsWith('hold:')
-      ? 'A weather stand-down was recorded for your crew; open Hodboard to see it.'
-      : days.length
-        ? `${job}: now ${days.length} day${days.length > 1 ? 's' : ''} from ${days[0]} to ${days[days.length - 1]}.`
-        : `${job} changed.`;
+    : event.type === 'hold:withdrawn'
+      ? 'A weather stand-down for your crew was withdrawn; open Hodboard to see your days.'
+      : event.type.startsWith('hold:')
+        ? 'A weather stand-down was recorded for your crew; open Hodboard to see it.'
+        : days.length
+          ? `${job}: now ${days.length} day${days.length > 1 ? 's' : ''} from ${days[0]} to ${days[days.length - 1]}.`
+          : `${job} changed.`;
   return { title: 'Your schedule changed', body, url: '/crew', tag: `schedule-${change.job?.id ?? event.id}` };
 }

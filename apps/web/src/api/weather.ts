@@ -1,4 +1,5 @@
 import type {
+  HoldWithdrawInput,
   ReplanInput,
   ReplanPreviewDto,
   WeatherHoldDto,
@@ -35,6 +36,10 @@ export function previewReplan(holdId: string, input: ReplanInput): Promise<Repla
 
 export function commitReplan(holdId: string, input: ReplanInput): Promise<ReplanPreviewDto> {
   return http.post<ReplanPreviewDto>(`/weather-holds/${id(holdId)}/commit`, input);
+}
+
+export function withdrawWeatherHold(holdId: string, input: HoldWithdrawInput): Promise<WeatherHoldDto> {
+  return http.post<WeatherHoldDto>(`/weather-holds/${id(holdId)}/withdraw`, input);
 }
 
 export function getWeatherLossSummary(): Promise<WeatherLossSummary> {

@@ -7,6 +7,7 @@ const api = vi.hoisted(() => ({
   raiseWeatherHold: vi.fn(),
   previewReplan: vi.fn(),
   commitReplan: vi.fn(),
+  withdrawWeatherHold: vi.fn(),
   getWeatherLossSummary: vi.fn(),
   getWeatherOutlook: vi.fn(),
   refreshForecasts: vi.fn(),
@@ -104,7 +105,7 @@ describe('weather store', () => {
   });
 
   it('marks the stand-down re-planned once the commit succeeds', async () => {
-    const hold = { id: 'h1', jobId: jobA, jobReference: 'J-101', crewId: null, dates: ['2027-03-02'], reason: 'wind', notes: null, raisedBy: 'Ruth Brindle', raisedFrom: 'office', raisedAt: '2027-03-01T08:00:00.000Z', status: 'open', forecastSeen: [], version: 1 } as const;
+    const hold = { id: 'h1', jobId: jobA, jobReference: 'J-101', crewId: null, dates: ['2027-03-02'], reason: 'wind', notes: null, raisedBy: 'Ruth Brindle', raisedFrom: 'office', raisedAt: '2027-03-01T08:00:00.000Z', status: 'open', forecastSeen: [], forecastFetchedAt: null, forecastWasStale: false, replanMode: null, version: 1 } as const;
     api.raiseWeatherHold.mockResolvedValue(hold);
     api.commitReplan.mockResolvedValue({ holdId: 'h1', mode: 'push', lostWorkingDays: 1, workedDays: [], moves: [], accessChanges: [], clientsToTell: [], warnings: [] });
     const store = useWeatherStore();
@@ -117,12 +118,24 @@ describe('weather store', () => {
   });
 
   it('keeps the stand-down open when the commit is refused', async () => {
-    const hold = { id: 'h2', jobId: jobA, jobReference: 'J-101', crewId: null, dates: ['2027-03-02'], reason: 'wind', notes: null, raisedBy: null, raisedFrom: 'office', raisedAt: '2027-03-01T08:00:00.000Z', status: 'open', forecastSeen: [], version: 1 } as const;
+    const hold = { id: 'h2', jobId: jobA, jobReference: 'J-101', crewId: null, dates: ['2027-03-02'], reason: 'wind', notes: null, raisedBy: null, raisedFrom: 'office', raisedAt: '2027-03-01T08:00:00.000Z', status: 'open', forecastSeen: [], forecastFetchedAt: null, forecastWasStale: false, replanMode: null, version: 1 } as const;
     api.raiseWeatherHold.mockResolvedValue(hold);
     api.commitReplan.mockRejectedValue(new Error('409'));
     const store = useWeatherStore();
     await store.raise({ jobId: jobA, dates: ['2027-03-02'], reason: 'wind' });
     await expect(store.commit('h2', { mode: 'push', version: 1 })).rejects.toThrow();
     expect(store.openHolds.map((h) => h.id)).toEqual(['h2']);
+  });
+
+  it('sends the version when withdrawing a stand-down and keeps the withdrawn one the API answers', async () => {
+    const hold = { id: 'h3', jobId: jobA, jobReference: 'J-101', crewId: null, dates: ['2027-03-02'], reason: 'rain', notes: null, raisedBy: null, raisedFrom: 'crew', raisedAt: '2027-03-01T08:00:00.000Z', status: 'open', forecastSeen: [], forecastFetchedAt: null, forecastWasStale: false, replanMode: null, version: 3 } as const;
+    api.raiseWeatherHold.mockResolvedValue(hold);
+    api.withdrawWeatherHold.mockResolvedValue({ ...hold, status: 'withdrawn', version: 4 });
+    const store = useWeatherStore();
+    await store.raise({ jobId: jobA, dates: ['2027-03-02'], reason: 'rain' });
+    await store.withdraw(store.holdsForJob(jobA)[0]!);
+    expect(api.withdrawWeatherHold).toHaveBeenCalledWith('h3', { version: 3 });
+    expect(store.holdsForJob(jobA)[0]).toMatchObject({ status: 'withdrawn', version: 4 });
+    expect(store.openHolds).toEqual([]);
   });
 });

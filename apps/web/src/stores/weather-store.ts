@@ -154,10 +154,16 @@ export const useWeatherStore = defineStore('weather', () => {
     return weatherApi.previewReplan(holdId, input);
   }
 
+  async function withdraw(hold: WeatherHoldDto): Promise<WeatherHoldDto> {
+    const withdrawn = await weatherApi.withdrawWeatherHold(hold.id, { version: hold.version });
+    holds.value = { ...holds.value, [withdrawn.id]: withdrawn };
+    return withdrawn;
+  }
+
   async function commit(holdId: string, input: ReplanInput): Promise<ReplanPreviewDto> {
     const result = await weatherApi.commitReplan(holdId, input);
     const hold = holds.value[holdId];
-    if (hold) holds.value = { ...holds.value, [holdId]: { ...hold, status: 'replanned', version: hold.version + 1 } };
+    if (hold) holds.value = { ...holds.value, [holdId]: { ...hold, status: 'replanned', replanMode: input.mode, version: hold.version + 1 } };
     return result;
   }
 
@@ -211,6 +217,7 @@ export const useWeatherStore = defineStore('weather', () => {
     raise,
     preview,
     commit,
+    withdraw,
     applyEvent,
     bindRealtime,
     clear,

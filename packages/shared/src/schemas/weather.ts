@@ -18,6 +18,7 @@ export type WeatherHoldInput = z.input<typeof weatherHoldInputSchema>;
 export type WeatherHoldValues = z.output<typeof weatherHoldInputSchema>;
 
 export const replanModes = ['push', 'push-and-ripple', 'move-crew', 'none'] as const;
+export type ReplanMode = (typeof replanModes)[number];
 export const replanSchema = z
   .object({
     mode: z.enum(replanModes),
@@ -30,6 +31,14 @@ export const replanSchema = z
   .refine((r) => r.mode !== 'move-crew' || r.crewId, { message: 'Pick the crew to take the job', path: ['crewId'] });
 export type ReplanInput = z.input<typeof replanSchema>;
 export type ReplanValues = z.output<typeof replanSchema>;
+
+/** Takes back a stand-down raised by mistake or overtaken by a better forecast. */
+export const holdWithdrawSchema = z.object({
+  version: z.number().int().min(1),
+  reason: optionalText(500),
+});
+export type HoldWithdrawInput = z.input<typeof holdWithdrawSchema>;
+export type HoldWithdrawValues = z.output<typeof holdWithdrawSchema>;
 
 export interface ForecastSnapshotHour {
   time: string;
@@ -53,6 +62,12 @@ export interface WeatherHoldDto {
   raisedAt: string;
   status: 'open' | 'replanned' | 'withdrawn';
   forecastSeen: ForecastSnapshotHour[];
+  /** When the forecast seen was fetched from the provider; null when the site had none. */
+  forecastFetchedAt: string | null;
+  /** The forecast seen was already past its refresh (the provider was failing) when the stand-down was raised. */
+  forecastWasStale: boolean;
+  /** How it was re-planned, once it has been. */
+  replanMode: ReplanMode | null;
   version: number;
 }
 

@@ -11,6 +11,7 @@ import {
   type RuleSettings,
   type PlacedSpan,
   type ReplanPreviewDto,
+  type HoldWithdrawValues,
   type ReplanValues,
   type WeatherHoldDto,
   type WeatherHoldValues,
@@ -219,15 +220,27 @@ export class WeatherService {
       if (!can(actor.role, 'jobs:manage') && !actor.crewIds.includes(assignment.crewId)) throw errors.notFound('Job');
       const notOnJob = input.dates.filter((date) => !assignment.days.includes(date));
       if (notOnJob.length) throw errors.validation([{ path: 'dates', message: `Not a day of ${job.reference}: ${notOnJob.join(', ')}` }]);
-      const site = await manager.findOneByOrFail(Site, { id: job.siteId });
       const dates = [...new Set(input.dates)].sort();
+      // The job row is locked above, so two stand-downs of the same days at once meet here one after the other.
+      const standing = await scope.query(WeatherHold, 'h')
+        .andWhere("h.job_id = :jobId AND h.status <> 'withdrawn'", { jobId: job.id })
+        .orderBy('h.raised_at', 'DESC')
+        .getMany();
+      const overlap = dates.filter((date) => standing.some((other) => other.dates.includes(date)));
+      if (overlap.length) {
+        throw errors.conflict(`${job.reference} is already stood down on ${overlap.map(shortDay).join(', ')}; withdraw that stand-down first to record it again.`);
+      }
+      const site = await manager.findOneByOrFail(Site, { id: job.siteId });
       const from = new Date(Date.parse(`${dates[0]}T00:00:00Z`));
       const to = new Date(Date.parse(`${dates[dates.length - 1]}T23:59:59Z`));
       const forecast = (await this.forecasts.forSites(manager, [site.id], from, to)).get(site.id);
+      // Already stood down by another stand-down: what it goes back to is what that one went back to.
+      const jobStatusBefore = job.status === 'stood-down' ? standing.find((other) => other.jobStatusBefore)?.jobStatusBefore ?? null : job.status;
       const hold = await manager.save(scope.create(WeatherHold, {
         jobId: job.id, crewId: assignment.crewId, dates, reason: input.reason, notes: input.notes, raisedBy: actor.userId,
         raisedFrom: can(actor.role, 'jobs:manage') ? 'office' : 'crew', status: 'open',
-        forecastSeen: forecast?.hours ?? [], idempotencyKey: input.idempotencyKey ?? null,
+        forecastSeen: forecast?.hours ?? [], forecastFetchedAt: forecast?.fetchedAt ?? null, forecastWasStale: forecast?.isStale ?? false,
+        jobStatusBefore, replanMode: null, idempotencyKey: input.idempotencyKey ?? null,
       }));
       const before = job.status;
       if (job.status === 'scheduled' || job.status === 'on-site') {
@@ -275,13 +288,10 @@ export class WeatherService {
         assertVersion(current, input.version, 'This stand-down');
         if (current.status !== 'open') throw errors.conflict('This stand-down has already been re-planned.');
         current.status = 'replanned';
+        current.replanMode = input.mode;
         await tx.save(current);
-        const job = await tx.findOneByOrFail(Job, { id: current.jobId, firmId: actor.firmId });
-        if (job.status === 'stood-down' && input.mode !== 'none') {
-          job.status = 'scheduled';
-          await tx.save(job);
-        }
-        await recordAudit(tx, actor, { entity: 'job', entityId: current.jobId, action: 'replanned', after: { mode: input.mode, moves: plan.moves.length } });
+        const status = await this.settleJobStatus(tx, actor, current);
+        await recordAudit(tx, actor, { entity: 'job', entityId: current.jobId, action: 'replanned', after: { mode: input.mode, moves: plan.moves.length, ...status } });
         return this.clientMails(tx, actor, holdId, preview);
       },
       'replanned',
@@ -290,20 +300,108 @@ export class WeatherService {
     return preview;
   }
 
+  /**
+   * Takes a stand-down back: one still open, or one re-planned with nothing moved. The job goes back to its status
+   * before unless another stand-down still holds it, and the days no longer count as lost.
+   */
+  async withdraw(actor: Actor, holdId: string, input: HoldWithdrawValues): Promise<WeatherHoldDto> {
+    requirePermission(actor, 'holds:raise');
+    const hold = await this.dataSource.transaction(async (manager) => {
+      const scope = new FirmScope(manager, actor.firmId);
+      const unlocked = await scope.get(WeatherHold, holdId, 'Stand-down');
+      if (!can(actor.role, 'jobs:manage') && !(unlocked.crewId && actor.crewIds.includes(unlocked.crewId))) throw errors.notFound('Stand-down');
+      // The job first, as raising and re-planning lock it, so a withdrawal and either one meet in the same order.
+      await scope.lockForUpdate(Job, unlocked.jobId, 'Job');
+      const current = await scope.lockForUpdate(WeatherHold, holdId, 'Stand-down');
+      assertVersion(current, input.version, 'This stand-down');
+      if (current.status === 'withdrawn') throw errors.conflict('This stand-down has already been withdrawn.');
+      if (current.status === 'replanned' && current.replanMode !== 'none') {
+        throw errors.conflict('This stand-down has been re-planned and its jobs moved; move them back on the board instead.');
+      }
+      const before = { status: current.status };
+      current.status = 'withdrawn';
+      const saved = await manager.save(current);
+      const status = await this.settleJobStatus(manager, actor, saved);
+      await recordAudit(manager, actor, {
+        entity: 'job', entityId: saved.jobId, action: 'stand-down-withdrawn',
+        before, after: { dates: saved.dates, reason: input.reason ?? null, ...status },
+      });
+      return saved;
+    });
+    this.events.publish({ firmId: actor.firmId, type: 'hold:withdrawn', id: hold.id, version: hold.version, crewIds: hold.crewId ? [hold.crewId] : [] });
+    return (await this.toDtos(this.dataSource.manager, [hold]))[0]!;
+  }
+
+  /**
+   * Jobs left stood down by a stand-down re-planned with nothing moved go back to their status once its days are past.
+   * Run on a schedule for every firm; returns how many jobs it put back.
+   */
+  async releasePassedStandDowns(): Promise<number> {
+    const rows = (await this.dataSource.query(
+      `SELECT DISTINCT h.firm_id, h.job_id FROM weather_hold h JOIN job j ON j.id = h.job_id AND j.firm_id = h.firm_id
+        WHERE j.status = 'stood-down' AND h.status = 'replanned' AND h.replan_mode = 'none'`,
+    )) as Array<{ firm_id: string; job_id: string }>;
+    let released = 0;
+    for (const row of rows) {
+      const system = { firmId: row.firm_id, userId: null as unknown as string };
+      const job = await this.dataSource.transaction(async (manager) => {
+        const locked = await new FirmScope(manager, row.firm_id).lockForUpdate(Job, row.job_id, 'Job');
+        const latest = await new FirmScope(manager, row.firm_id).query(WeatherHold, 'h')
+          .andWhere("h.job_id = :jobId AND h.status = 'replanned' AND h.replan_mode = 'none'", { jobId: row.job_id })
+          .orderBy('h.raised_at', 'DESC').getOne();
+        if (!latest) return null;
+        const status = await this.settleJobStatus(manager, system, latest);
+        if (status.statusAfter === status.statusBefore) return null;
+        await recordAudit(manager, system, { entity: 'job', entityId: locked.id, action: 'stand-down-ended', before: { status: status.statusBefore }, after: { status: status.statusAfter } });
+        return locked;
+      });
+      if (job) {
+        released += 1;
+        this.events.publish({ firmId: row.firm_id, type: 'job:updated', id: job.id });
+      }
+    }
+    return released;
+  }
+
+  /**
+   * Puts the job of a settled stand-down (re-planned or withdrawn) back to its status before, unless a stand-down still
+   * holds it: one open, or one re-planned with nothing moved that has a held day today or ahead. Runs in the caller's
+   * transaction with the job row locked.
+   */
+  private async settleJobStatus(manager: EntityManager, actor: Pick<Actor, 'firmId'>, settled: WeatherHold): Promise<{ statusBefore: Job['status']; statusAfter: Job['status'] }> {
+    const scope = new FirmScope(manager, actor.firmId);
+    const job = await scope.get(Job, settled.jobId, 'Job');
+    const statusBefore = job.status;
+    if (job.status !== 'stood-down') return { statusBefore, statusAfter: job.status };
+    const calendars = await loadCalendars(manager, actor.firmId);
+    const today = todayIn(calendars.timeZone, this.clock());
+    const others = await scope.find(WeatherHold, { where: { jobId: job.id } });
+    const isHolding = (hold: WeatherHold) =>
+      hold.status === 'open' || (hold.status === 'replanned' && hold.replanMode === 'none' && hold.dates.some((date) => date >= today));
+    if (others.some(isHolding)) return { statusBefore, statusAfter: job.status };
+    job.status = settled.jobStatusBefore === 'on-site' ? 'on-site' : 'scheduled';
+    await manager.save(job);
+    return { statusBefore, statusAfter: job.status };
+  }
+
+  /** Days lost to weather per job and per crew: each job-day once, however many stand-downs name it. */
   async summary(actor: Actor): Promise<{ byJob: Array<{ jobId: string; days: number }>; byCrew: Array<{ crewId: string; days: number }> }> {
     requirePermission(actor, 'jobs:manage');
-    const rows = await new FirmScope(this.dataSource.manager, actor.firmId)
-      .query(WeatherHold, 'h')
-      .select('h.job_id', 'jobId')
-      .addSelect('h.crew_id', 'crewId')
-      .addSelect('SUM(cardinality(h.dates))::int', 'days')
-      .andWhere("h.status <> 'withdrawn'")
-      .groupBy('h.job_id')
-      .addGroupBy('h.crew_id')
-      .getRawMany<{ jobId: string; crewId: string | null; days: number }>();
-    const byCrew = new Map<string, number>();
-    for (const row of rows) if (row.crewId) byCrew.set(row.crewId, (byCrew.get(row.crewId) ?? 0) + row.days);
-    return { byJob: rows.map((r) => ({ jobId: r.jobId, days: r.days })), byCrew: [...byCrew].map(([crewId, days]) => ({ crewId, days })) };
+    const rows = (await this.dataSource.query(
+      `SELECT DISTINCT h.job_id, h.crew_id, d::text AS date FROM weather_hold h CROSS JOIN LATERAL unnest(h.dates) AS d
+        WHERE h.firm_id = $1 AND h.status <> 'withdrawn'`,
+      [actor.firmId],
+    )) as Array<{ job_id: string; crew_id: string | null; date: string }>;
+    const byJob = new Map<string, Set<string>>();
+    const byCrew = new Map<string, Set<string>>();
+    for (const row of rows) {
+      byJob.set(row.job_id, (byJob.get(row.job_id) ?? new Set()).add(row.date));
+      if (row.crew_id) byCrew.set(row.crew_id, (byCrew.get(row.crew_id) ?? new Set()).add(`${row.job_id}|${row.date}`));
+    }
+    return {
+      byJob: [...byJob].map(([jobId, days]) => ({ jobId, days: days.size })),
+      byCrew: [...byCrew].map(([crewId, days]) => ({ crewId, days: days.size })),
+    };
   }
 
   private async plan(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues) {
@@ -414,7 +512,8 @@ export class WeatherService {
     return holds.map((hold) => ({
       id: hold.id, jobId: hold.jobId, jobReference: jobs.find((j) => j.id === hold.jobId)?.reference ?? '', crewId: hold.crewId, dates: hold.dates,
       reason: hold.reason, notes: hold.notes, raisedBy: users.find((u) => u.id === hold.raisedBy)?.name ?? null, raisedFrom: hold.raisedFrom,
-      raisedAt: hold.raisedAt.toISOString(), status: hold.status, forecastSeen: hold.forecastSeen, version: hold.version,
+      raisedAt: hold.raisedAt.toISOString(), status: hold.status, forecastSeen: hold.forecastSeen,
+      forecastFetchedAt: hold.forecastFetchedAt?.toISOString() ?? null, forecastWasStale: hold.forecastWasStale, replanMode: hold.replanMode, version: hold.version,
     }));
   }
 }
