@@ -126,6 +126,35 @@ describe('stand-downs and re-plans', () => {
     expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(2);
   });
 
+  it('plans the commit in its own transaction: a previewed plan the board no longer allows is refused, and the e-mail gives the dates applied', async () => {
+    const nextJob = await followingJob();
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const preview = (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    expect(preview.moves.map((m) => m.jobId)).toEqual([ids.jobId, nextJob]);
+    // The following job is moved on by hand after the preview, so the ripple is no longer needed.
+    const next = (await board()).assignments.find((a) => a.jobId === nextJob)!;
+    await request(h.app).put(`/api/assignments/${next.id}`).set(owner.auth).send({ crewId: ids.crewId, startDate: '2027-04-05', workingDays: 2, version: next.version }).expect(200);
+    const before = await countRows(h.dataSource);
+    const refused = await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth)
+      .send({ mode: 'push-and-ripple', version: hold.version, planKey: preview.planKey }).expect(409);
+    expect(refused.body).toMatchObject({ code: 'conflict', status: 409 });
+    expect(await countRows(h.dataSource)).toEqual(before);
+    expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(0);
+
+    const fresh = (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    expect(fresh.planKey).not.toBe(preview.planKey);
+    const committed = (await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth)
+      .send({ mode: 'push-and-ripple', version: hold.version, planKey: fresh.planKey }).expect(200)).body as ReplanPreviewDto;
+    expect(committed).toEqual(fresh);
+    expect(committed.moves.map((m) => [m.jobId, m.toDays])).toEqual([[ids.jobId, ['2027-03-30', '2027-03-31']]]);
+    const view = await board();
+    expect(view.assignments.find((a) => a.jobId === nextJob)!.days).toEqual(['2027-04-05', '2027-04-06']);
+    const mails = h.mailer.outbox.filter((m) => m.to === 'farm@example.org');
+    expect(mails).toHaveLength(1);
+    expect(mails[0]!.text).toContain('Tuesday 30 March');
+    expect(mails[0]!.text).not.toContain('April');
+  });
+
   it('lets only one of two simultaneous re-plans through', async () => {
     const hold = (await raise().expect(201)).body as WeatherHoldDto;
     const [a, b] = await Promise.all([

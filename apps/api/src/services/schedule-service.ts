@@ -207,19 +207,21 @@ export class ScheduleService {
   }
 
   /**
-   * Applies several moves in one transaction (a re-plan), each checked against the version it was planned
-   * from; `extra` runs in the same transaction. One schedule event per moved job, all published after commit.
+   * Applies several moves in one transaction (a re-plan). `prepare` runs first in that transaction and plans them, so
+   * what is applied is what was planned from the rows it read; each move is still checked against the version it
+   * was planned from, and `prepare`'s `extra` step runs after the moves are saved. One schedule event per moved job,
+   * all published after commit.
    */
   async applyMoves(
     actor: Actor,
-    moves: Array<{ assignmentId: string; crewId: string; startDate: string; workingDays: number; expectedVersion: number }>,
-    extra: (manager: EntityManager) => Promise<AfterCommit[]>,
+    prepare: (manager: EntityManager) => Promise<{ moves: PlannedAssignmentMove[]; extra: (manager: EntityManager) => Promise<AfterCommit[]> }>,
     action = 'replanned',
   ): Promise<ScheduleChangeDto[]> {
     const published: Array<{ change: ScheduleChangeDto; eventId: number }> = [];
     const afterCommit: AfterCommit[] = [];
     await this.dataSource.transaction(async (manager) => {
       const scope = new FirmScope(manager, actor.firmId);
+      const { moves, extra } = await prepare(manager);
       const calendars = await loadCalendars(manager, actor.firmId);
       const crewIds = [...new Set(moves.map((m) => m.crewId))].sort();
       for (const crewId of crewIds) await scope.lockForUpdate(Crew, crewId, 'Crew');
@@ -556,6 +558,15 @@ interface ChangeToDescribe {
   job: Job;
   crewIds: string[];
   touchedDays: string[];
+}
+
+/** One job's place after a re-plan, and the version of its assignment the plan was made from. */
+export interface PlannedAssignmentMove {
+  assignmentId: string;
+  crewId: string;
+  startDate: string;
+  workingDays: number;
+  expectedVersion: number;
 }
 
 /** What the weather rules need to know of a placed job and its site. */

@@ -107,7 +107,7 @@ describe('weather store', () => {
   it('marks the stand-down re-planned once the commit succeeds', async () => {
     const hold = { id: 'h1', jobId: jobA, jobReference: 'J-101', crewId: null, dates: ['2027-03-02'], reason: 'wind', notes: null, raisedBy: 'Ruth Brindle', raisedFrom: 'office', raisedAt: '2027-03-01T08:00:00.000Z', status: 'open', forecastSeen: [], forecastFetchedAt: null, forecastWasStale: false, replanMode: null, version: 1 } as const;
     api.raiseWeatherHold.mockResolvedValue(hold);
-    api.commitReplan.mockResolvedValue({ holdId: 'h1', mode: 'push', lostWorkingDays: 1, workedDays: [], moves: [], accessChanges: [], clientsToTell: [], warnings: [] });
+    api.commitReplan.mockResolvedValue({ holdId: 'h1', mode: 'push', lostWorkingDays: 1, workedDays: [], moves: [], accessChanges: [], clientsToTell: [], warnings: [], planKey: 'plan-1' });
     const store = useWeatherStore();
     await store.raise({ jobId: jobA, dates: ['2027-03-02'], reason: 'wind' });
     expect(store.openHolds.map((h) => h.id)).toEqual(['h1']);

@@ -27,6 +27,8 @@ export const replanSchema = z
     /** For move-crew: the day the new crew starts; defaults to the first day stood down. */
     startDate: isoDateSchema.optional(),
     version: z.number().int().min(1),
+    /** The preview's planKey: the commit is refused (409) if the plan would no longer be the one previewed. */
+    planKey: z.string().trim().min(1).max(128).optional(),
   })
   .refine((r) => r.mode !== 'move-crew' || r.crewId, { message: 'Pick the crew to take the job', path: ['crewId'] });
 export type ReplanInput = z.input<typeof replanSchema>;
@@ -105,6 +107,8 @@ export interface ReplanPreviewDto {
   /** Clients who will be e-mailed their new dates. */
   clientsToTell: string[];
   warnings: string[];
+  /** Names this plan; sent back with the commit so it applies only what was previewed. */
+  planKey: string;
 }
 
 /** One rule's finding on a job-day, with the figures it was judged on. */

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import {
   activitiesForJob,
@@ -263,41 +264,48 @@ export class WeatherService {
     requirePermission(actor, 'holds:replan');
     const manager = this.dataSource.manager;
     const hold = await new FirmScope(manager, actor.firmId).get(WeatherHold, holdId, 'Stand-down');
-    return this.buildPreview(manager, actor, hold, input);
+    return (await this.buildPreview(manager, actor, hold, input)).preview;
   }
 
   /**
-   * Commits a re-plan in one transaction. The moves are planned from the state read here and applied only if
-   * every job is still at the version planned from and the stand-down is still open, so of two re-plans at once
-   * one wins and the other gets 409.
+   * Commits a re-plan in one transaction: the stand-down is locked, then the crews planned on (as placing and moving
+   * jobs lock them), and the plan is made from what is read there and applied as made, so the clients are told the
+   * dates the board then shows. Of two commits of one stand-down the second finds it re-planned (409); with the
+   * preview's planKey, a plan that would no longer be the one previewed is refused (409) rather than applied.
    */
   async commit(actor: Actor, holdId: string, input: ReplanValues): Promise<ReplanPreviewDto> {
     requirePermission(actor, 'holds:replan');
     if (!this.schedule) throw new Error('weather service used before the schedule was attached');
-    const manager = this.dataSource.manager;
-    const hold = await new FirmScope(manager, actor.firmId).get(WeatherHold, holdId, 'Stand-down');
-    assertVersion(hold, input.version, 'This stand-down');
-    if (hold.status !== 'open') throw errors.conflict('This stand-down has already been re-planned.');
-    const preview = await this.buildPreview(manager, actor, hold, input);
-    const { plan, spans } = await this.plan(manager, actor, hold, input);
-    await this.schedule.applyMoves(
-      actor,
-      plan.moves.map((m) => ({ assignmentId: m.assignmentId, crewId: m.toCrewId, startDate: m.startDate, workingDays: m.workingDays, expectedVersion: spans.get(m.assignmentId)!.version })),
-      async (tx) => {
-        const current = await new FirmScope(tx, actor.firmId).lockForUpdate(WeatherHold, holdId, 'Stand-down');
-        assertVersion(current, input.version, 'This stand-down');
-        if (current.status !== 'open') throw errors.conflict('This stand-down has already been re-planned.');
-        current.status = 'replanned';
-        current.replanMode = input.mode;
-        await tx.save(current);
-        const status = await this.settleJobStatus(tx, actor, current);
-        await recordAudit(tx, actor, { entity: 'job', entityId: current.jobId, action: 'replanned', after: { mode: input.mode, moves: plan.moves.length, ...status } });
-        return this.clientMails(tx, actor, holdId, preview);
-      },
-      'replanned',
-    );
+    let committed: ReplanPreviewDto | undefined;
+    await this.schedule.applyMoves(actor, async (tx) => {
+      const scope = new FirmScope(tx, actor.firmId);
+      const hold = await scope.lockForUpdate(WeatherHold, holdId, 'Stand-down');
+      assertVersion(hold, input.version, 'This stand-down');
+      if (hold.status !== 'open') throw errors.conflict('This stand-down has already been re-planned.');
+      const target = await tx.findOneBy(Assignment, { jobId: hold.jobId, firmId: actor.firmId });
+      const crewIds = [target?.crewId, input.mode === 'move-crew' ? input.crewId : undefined].filter((id): id is string => Boolean(id));
+      for (const crewId of [...new Set(crewIds)].sort()) await scope.lockForUpdate(Crew, crewId, 'Crew');
+      const { preview, plan, spans } = await this.buildPreview(tx, actor, hold, input);
+      if (input.planKey && input.planKey !== preview.planKey) {
+        throw errors.conflict('The board has changed since this re-plan was previewed; check the new preview before committing.');
+      }
+      committed = preview;
+      return {
+        moves: plan.moves.map((m) => ({ assignmentId: m.assignmentId, crewId: m.toCrewId, startDate: m.startDate, workingDays: m.workingDays, expectedVersion: spans.get(m.assignmentId)!.version })),
+        extra: async (manager) => {
+          hold.status = 'replanned';
+          hold.replanMode = input.mode;
+          await manager.save(hold);
+          // Locked already when the job moved; when nothing moved, locked here, after the crews and assignments.
+          await new FirmScope(manager, actor.firmId).lockForUpdate(Job, hold.jobId, 'Job');
+          const status = await this.settleJobStatus(manager, actor, hold);
+          await recordAudit(manager, actor, { entity: 'job', entityId: hold.jobId, action: 'replanned', after: { mode: input.mode, moves: plan.moves.length, ...status } });
+          return this.clientMails(manager, actor, holdId, preview);
+        },
+      };
+    }, 'replanned');
     this.events.publish({ firmId: actor.firmId, type: 'hold:replanned', id: holdId });
-    return preview;
+    return committed!;
   }
 
   /**
@@ -308,11 +316,10 @@ export class WeatherService {
     requirePermission(actor, 'holds:raise');
     const hold = await this.dataSource.transaction(async (manager) => {
       const scope = new FirmScope(manager, actor.firmId);
-      const unlocked = await scope.get(WeatherHold, holdId, 'Stand-down');
-      if (!can(actor.role, 'jobs:manage') && !(unlocked.crewId && actor.crewIds.includes(unlocked.crewId))) throw errors.notFound('Stand-down');
-      // The job first, as raising and re-planning lock it, so a withdrawal and either one meet in the same order.
-      await scope.lockForUpdate(Job, unlocked.jobId, 'Job');
+      // The stand-down first, then its job, in the order a re-plan takes them, so a withdrawal and a re-plan queue up.
       const current = await scope.lockForUpdate(WeatherHold, holdId, 'Stand-down');
+      if (!can(actor.role, 'jobs:manage') && !(current.crewId && actor.crewIds.includes(current.crewId))) throw errors.notFound('Stand-down');
+      await scope.lockForUpdate(Job, current.jobId, 'Job');
       assertVersion(current, input.version, 'This stand-down');
       if (current.status === 'withdrawn') throw errors.conflict('This stand-down has already been withdrawn.');
       if (current.status === 'replanned' && current.replanMode !== 'none') {
@@ -435,7 +442,7 @@ export class WeatherService {
     return { plan, spans: new Map([target, ...later, ...receiving].map((a) => [a.id, a])), jobs, calendars, receivingCrew };
   }
 
-  private async buildPreview(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues): Promise<ReplanPreviewDto> {
+  private async buildPreview(manager: EntityManager, actor: Actor, hold: WeatherHold, input: ReplanValues) {
     const { plan, jobs, calendars, spans, receivingCrew } = await this.plan(manager, actor, hold, input);
     const clients = await manager.find(Client, { where: { id: In(jobs.map((j) => j.clientId)) } });
     const projected = new Map(plan.moves.map((m) => [m.jobId, m.toDays]));
@@ -456,19 +463,22 @@ export class WeatherService {
       warnings.push(`${receivingCrew.name} is still on ${references.join(', ')} on ${shortDay(plan.requestedStart!)}, so they start on ${shortDay(plan.moves[0].startDate)}.`);
     }
     if (plan.lostWorkingDays === 0) warnings.push('None of the days stood down are working days of this job; nothing moves.');
-    return {
+    const moves = plan.moves.map((m) => {
+      const job = jobs.find((j) => j.id === m.jobId)!;
+      return {
+        jobId: m.jobId, reference: job.reference, title: job.title, clientName: clients.find((c) => c.id === job.clientId)?.name ?? '',
+        fromCrewId: m.fromCrewId, toCrewId: m.toCrewId, fromDays: [...m.fromDays], toDays: m.toDays,
+      };
+    });
+    const preview: ReplanPreviewDto = {
       holdId: hold.id, mode: input.mode, lostWorkingDays: plan.lostWorkingDays, workedDays: plan.workedDays,
-      moves: plan.moves.map((m) => {
-        const job = jobs.find((j) => j.id === m.jobId)!;
-        return {
-          jobId: m.jobId, reference: job.reference, title: job.title, clientName: clients.find((c) => c.id === job.clientId)?.name ?? '',
-          fromCrewId: m.fromCrewId, toCrewId: m.toCrewId, fromDays: [...m.fromDays], toDays: m.toDays,
-        };
-      }),
+      moves,
       accessChanges,
       clientsToTell: [...new Set(plan.moves.map((m) => clients.find((c) => c.id === jobs.find((j) => j.id === m.jobId)?.clientId)).filter((c) => c?.email).map((c) => c!.name))],
       warnings,
+      planKey: planKeyOf({ mode: input.mode, moves, accessChanges }),
     };
+    return { preview, plan, spans };
   }
 
   /** One e-mail per client per moved job per re-plan; the notification key makes a resend impossible. */
@@ -516,6 +526,16 @@ export class WeatherService {
       forecastFetchedAt: hold.forecastFetchedAt?.toISOString() ?? null, forecastWasStale: hold.forecastWasStale, replanMode: hold.replanMode, version: hold.version,
     }));
   }
+}
+
+/** What a commit compares with the preview it was shown: every job's days and every booking's dates it would change. */
+function planKeyOf(plan: Pick<ReplanPreviewDto, 'mode' | 'moves' | 'accessChanges'>): string {
+  const canonical = JSON.stringify([
+    plan.mode,
+    plan.moves.map((m) => [m.jobId, m.fromCrewId, m.toCrewId, m.fromDays, m.toDays]),
+    plan.accessChanges.map((c) => [c.bookingId, c.effect, c.fromErect, c.fromStrike, c.toErect, c.toStrike]),
+  ]);
+  return createHash('sha256').update(canonical).digest('base64url');
 }
 
 /** A date as the office reads it, e.g. "Wed 26 May". */
