@@ -105,11 +105,17 @@ test.describe('foundation', () => {
     await page.getByRole('button', { name: 'New client' }).click();
     const clientDialog = page.getByRole('dialog', { name: 'New client' });
     await clientDialog.getByLabel('Client name').fill(clientName);
-    await clientDialog.getByLabel('Contact name').fill('Wren Ashworth');
-    await clientDialog.getByLabel('Email').fill('not-an-address');
+    const mainContact = clientDialog.getByRole('group', { name: 'Main contact' });
+    await mainContact.getByLabel('Name').fill('Wren Ashworth');
+    await mainContact.getByLabel('Email').fill('not-an-address');
+    await clientDialog.getByRole('button', { name: 'Add contact' }).click();
+    const second = clientDialog.getByRole('group', { name: 'Contact 2' });
+    await second.getByLabel('Name').fill('Orla Ashworth');
+    await second.getByLabel('Role').fill('Trustee');
+    await second.getByLabel('Phone').fill('07700 900614');
     await clientDialog.getByRole('button', { name: 'Add client' }).click();
-    await expect(clientDialog.getByText('Enter a valid e-mail address')).toBeVisible();
-    await clientDialog.getByLabel('Email').fill('wren@ashworth-trust.example.org');
+    await expect(mainContact.getByText('Enter a valid e-mail address')).toBeVisible();
+    await mainContact.getByLabel('Email').fill('wren@ashworth-trust.example.org');
     await clientDialog.getByRole('button', { name: 'Add client' }).click();
     await expect(clientDialog).toBeHidden();
 
@@ -138,6 +144,7 @@ test.describe('foundation', () => {
     await page.getByRole('textbox', { name: 'Search clients' }).fill(tag);
     const clientRow = page.getByRole('row', { name: new RegExp(clientName) });
     await expect(clientRow).toBeVisible();
+    await expect(clientRow).toContainText('Wren Ashworth and 1 more');
     await expect(page.getByRole('row')).toHaveCount(2);
     await clientRow.getByRole('button', { name: 'Show sites' }).click();
     await expect(sites.getByText(address)).toBeVisible();

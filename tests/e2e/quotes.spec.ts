@@ -28,7 +28,7 @@ async function apiToken(request: APIRequestContext): Promise<string> {
 async function gardenWallEnquiry(request: APIRequestContext, token: string, stamp: string) {
   const headers = { Authorization: `Bearer ${token}` };
   const email = `iris.penhallow.${stamp}@example.org`;
-  const client = await (await request.post('/api/clients', { headers, data: { name: `Iris Penhallow ${stamp}`, email } })).json();
+  const client = await (await request.post('/api/clients', { headers, data: { name: `Iris Penhallow ${stamp}`, contacts: [{ name: 'Iris Penhallow', email }] } })).json();
   const site = await (await request.post('/api/sites', {
     headers, data: { clientId: client.id, addressLine1: '3 Tanners Row', town: 'Greenhythe', postcode: 'GH2 7RW' },
   })).json();

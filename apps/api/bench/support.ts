@@ -108,7 +108,8 @@ export async function seedFirm(dataSource: DataSource, shape: FirmShape): Promis
   const sites: Array<{ clientId: string; siteId: string }> = [];
   for (let i = 0; i < shape.clients; i += 1) {
     const name = `Client ${i + 1}`;
-    const { id: clientId } = await q(`INSERT INTO client (firm_id, name, contact_name, email, version) VALUES ($1, $2, $2, $3, 1) RETURNING id`, [firmId, name, shape.clientEmails ? `client${i + 1}@example.org` : null]);
+    const contacts = [{ name, role: null, email: shape.clientEmails ? `client${i + 1}@example.org` : null, phone: null }];
+    const { id: clientId } = await q(`INSERT INTO client (firm_id, name, contacts, version) VALUES ($1, $2, $3, 1) RETURNING id`, [firmId, name, JSON.stringify(contacts)]);
     const { id: siteId } = await q(
       `INSERT INTO site (firm_id, client_id, address_line1, town, postcode, lat, lon, version) VALUES ($1, $2, $3, $4, $5, $6, $7, 1) RETURNING id`,
       [firmId, clientId, `${(i % 60) + 1} ${STREETS[i % STREETS.length]}`, TOWNS[i % TOWNS.length], `CM${(i % 9) + 1} ${(i % 8) + 1}AB`, 52.1 + (i % 40) * 0.01, -1.9 + (i % 50) * 0.01],

@@ -104,7 +104,7 @@ export function inviteTokenFrom(mailer: MemoryMailer, email: string, path = 'acc
 
 /** A firm with one of everything, for sweeps across resources. */
 export async function populateFirm(harness: Harness, owner: SignedIn) {
-  const client = await request(harness.app).post('/api/clients').set(owner.auth).send({ name: 'Marsh End Farm', email: 'farm@example.org' }).expect(201);
+  const client = await request(harness.app).post('/api/clients').set(owner.auth).send({ name: 'Marsh End Farm', contacts: [{ email: 'farm@example.org' }] }).expect(201);
   const site = await request(harness.app)
     .post('/api/sites')
     .set(owner.auth)

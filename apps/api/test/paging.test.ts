@@ -8,14 +8,15 @@ const clientIds: Record<string, string> = {};
 
 // Names whose order is the same byte-wise and by dictionary, so the test does not depend on the database's collation.
 const CLIENTS = [
-  { name: 'Cedar Lodge', email: 'bookings@cedar.example' },
-  { name: 'Alder Farm', email: 'alder@farm.example' },
-  { name: 'Elm Cottage', email: 'elm@cottage.example' },
-  { name: 'Birch House', email: 'office@birch.example' },
-  { name: 'Damson Barn', email: 'damson@barn.example' },
-  { name: 'Lime 100% Mortars', email: 'sales@lime.example' },
-  { name: 'Under_Pinning Co', email: 'info@underpinning.example' },
+  { name: 'Cedar Lodge', contacts: [{ name: 'Rhian Cole', email: 'bookings@cedar.example' }] },
+  { name: 'Alder Farm', contacts: [{ email: 'alder@farm.example' }, { name: 'Tobias Wren', role: 'Farm manager', phone: '07700 900123' }] },
+  { name: 'Elm Cottage', contacts: [{ email: 'elm@cottage.example' }] },
+  { name: 'Birch House', contacts: [{ email: 'office@birch.example' }, { name: 'Nell Okafor', role: 'Tenant' }] },
+  { name: 'Damson Barn', contacts: [{ email: 'damson@barn.example' }] },
+  { name: 'Lime 100% Mortars', contacts: [{ email: 'sales@lime.example' }] },
+  { name: 'Under_Pinning Co', contacts: [{ email: 'info@underpinning.example' }] },
 ];
+const mainEmail = (client: { contacts: Array<{ email?: string }> }) => client.contacts[0]!.email!;
 
 const SITES = [
   { client: 'Alder Farm', addressLine1: '1 Orchard Way', town: 'Callowmere', postcode: 'CM1 1AB' },
@@ -38,7 +39,7 @@ beforeAll(async () => {
   }
   // Another firm with look-alike rows: none of them may appear in this firm's pages or totals.
   const other = await signUpFirm(h, 'Other Masonry', 'owner@other.example');
-  const stranger = await request(h.app).post('/api/clients').set(other.auth).send({ name: 'Alder Farm Two', email: 'alder@elsewhere.example' }).expect(201);
+  const stranger = await request(h.app).post('/api/clients').set(other.auth).send({ name: 'Alder Farm Two', contacts: [{ name: 'Tobias Wren', email: 'alder@elsewhere.example' }] }).expect(201);
   await request(h.app).post('/api/sites').set(other.auth).send({ clientId: stranger.body.id, addressLine1: '1 Orchard Way', town: 'Callowmere', postcode: 'CM1 1AB' }).expect(201);
 });
 afterAll(async () => {
@@ -67,16 +68,24 @@ describe('clients table', () => {
 
   it('sorts descending, by e-mail and by creation', async () => {
     expect((await list('/api/clients', { sort: 'name', order: 'desc' })).items.map((c) => c.name)).toEqual([...byName].reverse());
-    expect((await list('/api/clients', { sort: 'email' })).items.map((c) => c.email)).toEqual(CLIENTS.map((c) => c.email).sort());
+    // By the main contact's e-mail.
+    const byEmail = (await list('/api/clients', { sort: 'email' })).items as Array<{ contacts: Array<{ email: string }> }>;
+    expect(byEmail.map(mainEmail)).toEqual(CLIENTS.map(mainEmail).sort());
     expect((await list('/api/clients', { sort: 'createdAt', order: 'desc', pageSize: 2 })).items.map((c) => c.name)).toEqual(['Under_Pinning Co', 'Lime 100% Mortars']);
   });
 
-  it('searches name and e-mail without regard to case, and counts only the matches', async () => {
+  it('searches name and every contact without regard to case, and counts only the matches', async () => {
     const byNamePart = await list('/api/clients', { q: 'cOTTAGE' });
     expect(byNamePart).toMatchObject({ total: 1 });
     expect(byNamePart.items.map((c) => c.name)).toEqual(['Elm Cottage']);
     const byEmail = await list('/api/clients', { q: 'office@' });
     expect(byEmail.items.map((c) => c.name)).toEqual(['Birch House']);
+    // A second contact's name, role and phone are found too.
+    expect((await list('/api/clients', { q: 'tobias' })).items.map((c) => c.name)).toEqual(['Alder Farm']);
+    expect((await list('/api/clients', { q: 'tenant' })).items.map((c) => c.name)).toEqual(['Birch House']);
+    expect((await list('/api/clients', { q: '900123' })).items.map((c) => c.name)).toEqual(['Alder Farm']);
+    // The field names inside the stored contacts are not text to find.
+    expect(await list('/api/clients', { q: 'phone' })).toMatchObject({ items: [], total: 0 });
     const paged = await list('/api/clients', { q: 'AR', sort: 'name', pageSize: 2, page: 2 });
     // Alder Farm, bookings@cedar…, Damson Barn, Lime 100% Mortars.
     expect(paged.total).toBe(4);

@@ -65,7 +65,7 @@ export async function setUpCosting(h: Harness, owner: SignedIn, overrides: Parti
 
 /** A client with an e-mail, a site and an unscheduled job: what an enquiry looks like before it is quoted. */
 export async function enquiry(h: Harness, owner: SignedIn, clientEmail = 'mo.hartigan@example.org'): Promise<{ jobId: string; clientId: string }> {
-  const client = await request(h.app).post('/api/clients').set(owner.auth).send({ name: 'Mo Hartigan', email: clientEmail }).expect(201);
+  const client = await request(h.app).post('/api/clients').set(owner.auth).send({ name: 'Mo Hartigan', contacts: [{ email: clientEmail }] }).expect(201);
   const site = await request(h.app)
     .post('/api/sites')
     .set(owner.auth)

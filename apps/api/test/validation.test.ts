@@ -21,7 +21,9 @@ type Case = [string, 'post' | 'put', string, () => unknown, string];
 const cases: Case[] = [
   ['a client with no name', 'post', '/api/clients', () => ({ name: '' }), 'name'],
   ['a client with a 10,000-character name', 'post', '/api/clients', () => ({ name: huge }), 'name'],
-  ['a client with a malformed e-mail', 'post', '/api/clients', () => ({ name: 'Ok', email: 'not-an-email' }), 'email'],
+  ['a client contact with a malformed e-mail', 'post', '/api/clients', () => ({ name: 'Ok', contacts: [{ name: 'Al' }, { email: 'not-an-email' }] }), 'contacts.1.email'],
+  ['a client contact with nothing to reach them by', 'post', '/api/clients', () => ({ name: 'Ok', contacts: [{ role: 'Tenant' }] }), 'contacts.0.name'],
+  ['a client with 21 contacts', 'post', '/api/clients', () => ({ name: 'Ok', contacts: Array.from({ length: 21 }, (_, i) => ({ name: `Person ${i}` })) }), 'contacts'],
   ['a site with a malformed postcode', 'post', '/api/sites', () => ({ clientId: ids.clientId, addressLine1: '1 Road', town: 'T', postcode: '12345' }), 'postcode'],
   ['a site with a client id that is not an id', 'post', '/api/sites', () => ({ clientId: 'abc', addressLine1: '1 Road', town: 'T', postcode: 'LM1 1AA' }), 'clientId'],
   ['a site with a latitude of 200', 'post', '/api/sites', () => ({ clientId: ids.clientId, addressLine1: '1 Road', town: 'T', postcode: 'LM1 1AA', lat: 200 }), 'lat'],

@@ -1,6 +1,6 @@
 import argon2 from 'argon2';
 import type { DataSource, EntityManager } from 'typeorm';
-import { addDays, isoWeekday, type AccessNeed, type Role, type TimeOffValues, type WorkType } from '@hodboard/shared';
+import { addDays, isoWeekday, type AccessNeed, type ClientContact, type Role, type TimeOffValues, type WorkType } from '@hodboard/shared';
 import { EventBus } from '../lib/event-bus.js';
 import { seedDemoQuotes } from './demo-quotes.js';
 import { todayIn } from '../lib/today.js';
@@ -48,6 +48,17 @@ const CLIENTS = [
   ['Stefan Holm', '2 Chapel Walk', 'Narrow lane: park at the chapel.', null],
   ['Eileen Carrow', '19 Orchard Rise', 'Dog in the garden: call ahead.', null],
 ] as const;
+
+/** Second and third people to reach at some clients; the first contact comes from the client list above. */
+const MORE_CONTACTS: Record<string, ClientContact[]> = {
+  'Greenhythe Parish Council': [{ name: 'Alys Brennan', role: 'Clerk to the council', email: 'clerk@greenhythe-pc.example.org', phone: '07700 900631' }],
+  'Oduya & Finch Lettings': [
+    { name: 'Kemi Oduya', role: 'Letting agent', email: 'kemi@oduyafinch.example.org', phone: null },
+    { name: 'Sam Whitlow', role: 'Tenant', email: null, phone: '07700 900644' },
+  ],
+  'Bramcote Primary School': [{ name: 'Gareth Lyle', role: 'Site manager', email: null, phone: '07700 900657' }],
+  'Callowmere Housing Co-operative': [{ name: 'Pat Ingle', role: 'Caretaker', email: null, phone: '07700 900488' }],
+};
 
 const JOB_KINDS: Array<{ title: string; workTypes: WorkType[]; days: number; access: AccessNeed[] }> = [
   { title: 'Rebuild chimney stack above roof line', workTypes: ['chimney'], days: 4, access: ['scaffold'] },
@@ -126,10 +137,13 @@ async function seedInto(dataSource: DataSource, passwordHash: string, today: str
     const sites: Site[] = [];
     for (const [index, [name, street, accessNotes, hazards]] of CLIENTS.entries()) {
       const place = TOWNS[index % TOWNS.length]!;
-      const client = await manager.save(manager.create(Client, {
-        firmId: firm.id, name, contactName: name.includes('&') || name.includes('Council') ? null : name,
+      const main = {
+        name: name.includes('&') || name.includes('Council') ? null : name, role: null,
         email: `${name.toLowerCase().replace(/[^a-z]+/g, '.').replace(/^\.|\.$/g, '')}@example.org`,
-        phone: `07700 900${String(100 + index * 7).padStart(3, '0')}`, notes: null,
+        phone: `07700 900${String(100 + index * 7).padStart(3, '0')}`,
+      };
+      const client = await manager.save(manager.create(Client, {
+        firmId: firm.id, name, contacts: [main, ...(MORE_CONTACTS[name] ?? [])], notes: null,
       }));
       sites.push(await manager.save(manager.create(Site, {
         firmId: firm.id, clientId: client.id, addressLine1: street, addressLine2: null, town: place.town,

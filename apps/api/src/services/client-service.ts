@@ -11,6 +11,12 @@ import { paginate } from './paging.js';
 
 type ClientValues = z.output<typeof clientInputSchema>;
 
+// The sort key 'email' is the main (first) contact's address.
+const MAIN_CONTACT_EMAIL = "client.contacts -> 0 ->> 'email'";
+// Every contact's name, role, e-mail and phone as one text to search, one line per field so a search cannot span two.
+const CONTACT_TEXT = `(SELECT string_agg(concat_ws(E'\\n', c ->> 'name', c ->> 'role', c ->> 'email', c ->> 'phone'), E'\\n')
+  FROM jsonb_array_elements(client.contacts) AS c)`;
+
 export class ClientService {
   constructor(
     private readonly dataSource: DataSource,
@@ -21,9 +27,9 @@ export class ClientService {
     requirePermission(actor, 'clients:read');
     const scope = new FirmScope(this.dataSource.manager, actor.firmId);
     const page = await paginate(scope.query(Client, 'client'), query, {
-      sortColumns: { name: 'client.name', createdAt: 'client.created_at', email: 'client.email' },
+      sortColumns: { name: 'client.name', createdAt: 'client.created_at', email: MAIN_CONTACT_EMAIL },
       defaultSort: 'name',
-      searchColumns: ['client.name', 'client.contact_name', 'client.email', 'client.phone'],
+      searchColumns: ['client.name', CONTACT_TEXT],
       toDto: (client) => client,
     });
     const counts = await this.siteCounts(actor.firmId, page.items.map((client) => client.id));
@@ -97,9 +103,7 @@ function toClientDto(client: Client, siteCount: number): ClientDto {
   return {
     id: client.id,
     name: client.name,
-    contactName: client.contactName,
-    email: client.email,
-    phone: client.phone,
+    contacts: client.contacts.map((contact) => ({ name: contact.name, role: contact.role, email: contact.email, phone: contact.phone })),
     notes: client.notes,
     siteCount,
     version: client.version,

@@ -60,7 +60,7 @@ async function addClient(n: number): Promise<Outcome> {
     const res = await fetch(`${base}/api/clients`, {
       method: 'POST',
       headers: { ...owner.auth, 'Content-Type': 'application/json' },
-      body: JSON.stringify({ name: `Restart client ${n}`, email: `client${n}@restart.example` }),
+      body: JSON.stringify({ name: `Restart client ${n}`, contacts: [{ email: `client${n}@restart.example` }] }),
       signal: AbortSignal.timeout(10_000),
     });
     const body = (await res.json()) as { id?: string; code?: string };

@@ -9,7 +9,7 @@ vi.mock('@/api/clients', () => api);
 vi.mock('./use-problem-toast', () => ({ useProblemToast: () => toast }));
 
 const client = (id: string, name: string): ClientDto => ({
-  id, name, contactName: null, email: null, phone: null, notes: null, siteCount: 0, version: 1, createdAt: '2027-01-04T08:00:00.000Z',
+  id, name, contacts: [], notes: null, siteCount: 0, version: 1, createdAt: '2027-01-04T08:00:00.000Z',
 });
 
 describe('useClientOptions', () => {

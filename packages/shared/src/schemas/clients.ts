@@ -10,14 +10,36 @@ const phoneSchema = z
   .nullable()
   .transform((value) => (value ? value : null));
 
+export const MAX_CLIENT_CONTACTS = 20;
+
+/** One person at the client: a tenant, a clerk, the owner's partner. A contact needs at least one way to reach them or a name. */
+export const clientContactSchema = z
+  .object({
+    name: optionalText(120),
+    /** What they are to the client or the job, in the firm's words ("Tenant", "Clerk to the council"). */
+    role: optionalText(80),
+    email: optionalEmailSchema,
+    phone: phoneSchema,
+  })
+  .refine((contact) => Boolean(contact.name || contact.email || contact.phone), {
+    message: 'Give a name, e-mail or phone number, or remove this contact',
+    path: ['name'],
+  });
+export type ClientContactInput = z.input<typeof clientContactSchema>;
+export type ClientContact = z.output<typeof clientContactSchema>;
+
 export const clientInputSchema = z.object({
   name: requiredText(120, 'Client name'),
-  contactName: optionalText(120),
-  email: optionalEmailSchema,
-  phone: phoneSchema,
+  /** The first is the main contact (see mainContact). */
+  contacts: z.array(clientContactSchema).max(MAX_CLIENT_CONTACTS, { message: `At most ${MAX_CLIENT_CONTACTS} contacts` }).default([]),
   notes: optionalText(2000),
 });
 export type ClientInput = z.input<typeof clientInputSchema>;
+
+/** The contact quotes and notices are addressed to and the crew phone offers to ring: the first one listed. */
+export function mainContact(contacts: readonly ClientContact[]): ClientContact | null {
+  return contacts[0] ?? null;
+}
 
 export const clientListQuerySchema = pageQuerySchema(['name', 'createdAt', 'email']);
 export type ClientListQuery = z.infer<typeof clientListQuerySchema>;
@@ -25,9 +47,7 @@ export type ClientListQuery = z.infer<typeof clientListQuerySchema>;
 export interface ClientDto {
   id: string;
   name: string;
-  contactName: string | null;
-  email: string | null;
-  phone: string | null;
+  contacts: ClientContact[];
   notes: string | null;
   siteCount: number;
   version: number;
