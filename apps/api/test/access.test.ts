@@ -520,6 +520,68 @@ describe('inspections', () => {
   });
 });
 
+describe('the handover when the access goes up', () => {
+  const handover = { handedOverOn: '2027-02-25', handedOverBy: 'Kit Varley (Lofty Poles)', competentPersonName: 'R. Quayle, CISRS advanced', tagReference: 'LP-TAG-0419', notes: 'Loading bay lift 3 for 4 pallets' };
+  async function confirmedBooking(): Promise<AccessBookingDto> {
+    const booking = (await book()).body as AccessBookingDto;
+    return (await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200)).body as AccessBookingDto;
+  }
+  const markUp = (booking: AccessBookingDto, body: object) =>
+    request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'erected', version: booking.version, ...body });
+
+  it('records who handed it over, the competent person and the tag, and dates the erection by the handover', async () => {
+    const booking = await confirmedBooking();
+    h.now.value = new Date('2027-02-26T08:00:00Z');
+    const up = (await markUp(booking, { handover }).expect(200)).body as AccessBookingDto;
+    expect(up.handover).toEqual(handover);
+    // Handed over on Thu 25 Feb, the day before the office marked it: the hire and the first inspection run from then.
+    expect(up.hire).toMatchObject({ erect: '2027-02-25' });
+    expect(up.inspection).toMatchObject({ status: 'overdue', nextDue: '2027-02-25', reasons: ['after-assembly'] });
+    const [audit] = (await h.dataSource.query(`SELECT after FROM audit_event WHERE entity_id = $1 AND action = 'state-erected'`, [booking.id])) as Array<{ after: Record<string, unknown> }>;
+    expect(audit!.after).toMatchObject({ handedOverBy: 'Kit Varley (Lofty Poles)', competentPersonName: 'R. Quayle, CISRS advanced', tagReference: 'LP-TAG-0419' });
+  });
+
+  it('puts the handover in the inspection register PDF', async () => {
+    const booking = await confirmedBooking();
+    h.now.value = new Date('2027-02-26T08:00:00Z');
+    await markUp(booking, { handover }).expect(200);
+    const pdf = await request(h.app).get(`/api/access-bookings/${booking.id}/inspections/pdf`).set(owner.auth).buffer(true).parse(binaryParser).expect(200);
+    const text = await pdfText(pdf.body as Buffer);
+    for (const expected of ['HANDOVER', 'Kit Varley (Lofty Poles)', 'R. Quayle, CISRS advanced', 'LP-TAG-0419', 'Loading bay lift 3 for 4 pallets']) expect(text).toContain(expected);
+  });
+
+  it.each([
+    ['without the competent person', { handover: { ...handover, competentPersonName: '' } }, 'handover.competentPersonName'],
+    ['dated in the future', { handover: { ...handover, handedOverOn: '2027-02-27' } }, 'handover.handedOverOn'],
+    ['with any state but up', { state: 'cancelled', handover }, 'handover'],
+  ])('refuses a handover %s and changes nothing', async (_name, body, path) => {
+    const booking = await confirmedBooking();
+    h.now.value = new Date('2027-02-26T08:00:00Z');
+    const res = await markUp(booking, body).expect(400);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body.errors.map((e: { path: string }) => e.path)).toContain(path);
+    expect(await bookingNow(booking.id)).toMatchObject({ state: 'confirmed', handover: null, version: booking.version });
+  });
+
+  it('lets the office record the handover after marking it up, or correct it, but not before it is up', async () => {
+    const booking = await confirmedBooking();
+    const early = await request(h.app).put(`/api/access-bookings/${booking.id}/handover`).set(owner.auth).send({ ...handover, version: booking.version }).expect(409);
+    expect(early.body.detail).toMatch(/once the access is up/);
+    h.now.value = new Date('2027-02-26T08:00:00Z');
+    const up = (await markUp(booking, {}).expect(200)).body as AccessBookingDto;
+    expect(up).toMatchObject({ handover: null, hire: { erect: '2027-02-26' } });
+
+    const lead = await addPerson(h, owner, 'crew-lead', 'lead@gorse.example');
+    await request(h.app).put(`/api/access-bookings/${booking.id}/handover`).set(lead.auth).send({ ...handover, version: up.version }).expect(403);
+    const recorded = (await request(h.app).put(`/api/access-bookings/${booking.id}/handover`).set(owner.auth).send({ ...handover, tagReference: null, version: up.version }).expect(200)).body as AccessBookingDto;
+    expect(recorded).toMatchObject({ handover: { ...handover, tagReference: null }, hire: { erect: '2027-02-25' } });
+    const stale = await request(h.app).put(`/api/access-bookings/${booking.id}/handover`).set(owner.auth).send({ ...handover, version: up.version }).expect(409);
+    expect(stale.body.code).toBe('stale-version');
+    const audit = (await h.dataSource.query(`SELECT before, after FROM audit_event WHERE entity_id = $1 AND action = 'handover-recorded'`, [booking.id])) as Array<{ before: unknown; after: unknown }>;
+    expect(audit).toEqual([{ before: null, after: { ...handover, tagReference: null } }]);
+  });
+});
+
 describe('inspections over a whole hire', () => {
   // A 25-working-day job from Mon 7 June 2027 (no bank holidays until 30 August): scaffold up by Fri 4 June,
   // down from Mon 12 July, so about five and a half weeks on hire. Europe/London is on BST (UTC+1) throughout.

@@ -80,6 +80,7 @@ function probeFor(method: string, path: string): { url: string; body?: object } 
     'PUT /api/suppliers/:id': { name: 'Taken over' },
     'POST /api/access-bookings/:id/state': { state: 'cancelled', version: 1 },
     'POST /api/access-bookings/:id/inspections': { inspectedAt: '2027-03-01T08:00:00Z', inspectorName: 'Intruder', result: 'safe' },
+    'PUT /api/access-bookings/:id/handover': { handedOverOn: '2027-03-01', handedOverBy: 'Intruder', competentPersonName: 'Intruder', version: 1 },
   };
   if (method === 'DELETE' && path === '/api/assignments/:id') return { url: `${url}?version=1` };
   if (!path.includes(':id')) return null;

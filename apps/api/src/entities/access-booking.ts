@@ -47,6 +47,24 @@ export class AccessBooking {
   @Column({ name: 'struck_on', type: 'date', nullable: true })
   struckOn: string | null;
 
+  @Column({ name: 'handed_over_on', type: 'date', nullable: true })
+  handedOverOn: string | null;
+
+  /** The supplier's person who handed the access over. */
+  @Column({ name: 'handed_over_by', type: 'text', nullable: true })
+  handedOverBy: string | null;
+
+  /** The supplier's competent person who signed the access off as ready to use. */
+  @Column({ name: 'competent_person', type: 'text', nullable: true })
+  competentPersonName: string | null;
+
+  /** The scaffold tag or the supplier's register entry for this handover. */
+  @Column({ name: 'handover_tag', type: 'text', nullable: true })
+  tagReference: string | null;
+
+  @Column({ name: 'handover_notes', type: 'text', nullable: true })
+  handoverNotes: string | null;
+
   /** Set when Hodboard cancelled the booking because its jobs no longer need it; null when the office did. */
   @Column({ name: 'cancelled_reason', type: 'text', nullable: true })
   cancelledReason: AccessCancelReason | null;

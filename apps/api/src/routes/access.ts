@@ -5,6 +5,7 @@ import {
   accessListQuerySchema,
   accessQuotedWeeksQuerySchema,
   accessStateChangeSchema,
+  handoverUpdateSchema,
   idParamsSchema,
   inspectionInputSchema,
   inspectionParamsSchema,
@@ -49,6 +50,9 @@ export function accessBookingsRouter(access: AccessService): Router {
   }));
   router.post('/:id/state', ...endpoint({ params: idParamsSchema, body: accessStateChangeSchema }, async ({ actor, params, body }, _req, res) => {
     res.json(await access.changeState(actor, params.id, body));
+  }));
+  router.put('/:id/handover', ...endpoint({ params: idParamsSchema, body: handoverUpdateSchema }, async ({ actor, params, body }, _req, res) => {
+    res.json(await access.recordHandover(actor, params.id, body));
   }));
   router.get('/:id/inspections', ...endpoint({ params: idParamsSchema }, async ({ actor, params }, _req, res) => {
     res.json(await access.listInspections(actor, params.id));

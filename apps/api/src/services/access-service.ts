@@ -20,6 +20,7 @@ import {
   type AccessState,
   type BoardJobDto,
   type ConflictDto,
+  type HandoverDto,
   type HireCostDto,
   type InspectionStatusDto,
   type PhotoDto,
@@ -30,7 +31,7 @@ import {
   type SupplierValues,
 } from '@hodboard/shared';
 import type { z } from 'zod';
-import type { accessStateChangeSchema, inspectionInputSchema, supplierResponseSchema } from '@hodboard/shared';
+import type { accessStateChangeSchema, handoverUpdateSchema, inspectionInputSchema, supplierResponseSchema } from '@hodboard/shared';
 import {
   AccessBooking, AccessChangeRequest, Assignment, Firm, FirmWeatherLimits, ForecastHourRow, Job, Photo, Quote, QuoteVersion, ScaffoldInspection, Site, Supplier, User, WeatherHold,
 } from '../entities/index.js';
@@ -53,6 +54,7 @@ import { formatAddress } from './site-service.js';
 import { toForecastHour } from './weather/forecast-service.js';
 
 type StateChange = z.output<typeof accessStateChangeSchema>;
+type HandoverUpdate = z.output<typeof handoverUpdateSchema>;
 type InspectionValues = z.output<typeof inspectionInputSchema>;
 type SupplierAnswer = z.output<typeof supplierResponseSchema>;
 
@@ -244,7 +246,10 @@ export class AccessService {
           throw errors.validation([{ path: 'confirmedErect', message: 'Give the confirmed erect and strike dates' }]);
         }
       }
-      if (input.state === 'erected') booking.erectedOn = today;
+      if (input.state === 'erected') {
+        booking.erectedOn = today;
+        if (input.handover) applyHandover(booking, input.handover, today);
+      }
       if (input.state === 'struck') booking.struckOn = today;
       const saved = await manager.save(booking);
       // Dates asked of the supplier mean nothing once the booking is no longer agreed with them.
@@ -257,6 +262,25 @@ export class AccessService {
     this.publish(actor.firmId, 'access:updated', booking.saved);
     // Committed already: a mail that fails to go must not turn the cancellation into an error.
     if (booking.notice) await this.mailer.send(booking.notice).catch(() => undefined);
+    return this.get(actor, id);
+  }
+
+  /** Records, or corrects, the supplier's handover of access that is up or has since been struck. */
+  async recordHandover(actor: Actor, id: string, input: HandoverUpdate): Promise<AccessBookingDto> {
+    requirePermission(actor, 'access:manage');
+    const { version, ...handover } = input;
+    const booking = await this.dataSource.transaction(async (manager) => {
+      const booking = await new FirmScope(manager, actor.firmId).lockForUpdate(AccessBooking, id, 'Access booking');
+      assertVersion(booking, version, 'This booking');
+      if (booking.state !== 'erected' && booking.state !== 'struck') throw errors.conflict('Record the handover once the access is up.');
+      const firm = await manager.findOneByOrFail(Firm, { id: actor.firmId });
+      const before = handoverOf(booking);
+      applyHandover(booking, handover, todayIn(firm.timeZone, this.clock()));
+      const saved = await manager.save(booking);
+      await recordAudit(manager, actor, { entity: 'access-booking', entityId: id, action: 'handover-recorded', before, after: handoverOf(saved) });
+      return saved;
+    });
+    this.publish(actor.firmId, 'access:updated', booking);
     return this.get(actor, id);
   }
 
@@ -353,7 +377,7 @@ export class AccessService {
       siteAddress: sites.join('; ') || 'Site not recorded',
       jobs: jobs.map((job) => `${job.reference} ${job.title}`).join('; '),
       equipment: accessTypeLabels[booking.accessType], supplier: supplier.name, reference: booking.reference,
-      erectedOn: booking.erectedOn, struckOn: booking.struckOn, keepUntil: retention.keepUntil, retentionSource: retention.source,
+      erectedOn: booking.erectedOn, struckOn: booking.struckOn, handover: handoverOf(booking), keepUntil: retention.keepUntil, retentionSource: retention.source,
       adverseDays: dto.inspection.adverseDays.filter((day) => day <= todayIn(firm.timeZone, this.clock())),
       generatedAt: this.clock(),
       records: rows.map((row) => ({
@@ -880,6 +904,7 @@ export class AccessService {
         reference: booking.reference, notes: booking.notes, hire: hireFor(booking),
         inspection: inspectionStatus(booking, inspections.get(booking.id) ?? [], today, adverse.get(booking.id)),
         pendingChange: change ? toChangeDto(change) : null,
+        handover: handoverOf(booking),
         hasNoWork: LIVE_STATES.has(booking.state) && (!needed || booking.jobIds.every((id) => cancelledJobs.has(id))),
         cancelledBecause: booking.state === 'cancelled' ? booking.cancelledReason : null,
         version: booking.version,
@@ -947,6 +972,29 @@ function addDaysIso(date: string, days: number): string {
   const d = new Date(`${date}T00:00:00Z`);
   d.setUTCDate(d.getUTCDate() + days);
   return d.toISOString().slice(0, 10);
+}
+
+/**
+ * The handover's date is the day the access went up, so it moves the erect date (and with it the hire and the first
+ * inspection); it cannot be in the future or after the strike.
+ */
+function applyHandover(booking: AccessBooking, handover: HandoverDto, today: string): void {
+  if (handover.handedOverOn > today) throw errors.validation([{ path: 'handover.handedOverOn', message: 'The handover cannot be in the future' }]);
+  if (booking.struckOn && handover.handedOverOn > booking.struckOn) {
+    throw errors.validation([{ path: 'handover.handedOverOn', message: 'The handover must be on or before the day it was struck' }]);
+  }
+  Object.assign(booking, {
+    erectedOn: handover.handedOverOn, handedOverOn: handover.handedOverOn, handedOverBy: handover.handedOverBy,
+    competentPersonName: handover.competentPersonName, tagReference: handover.tagReference, handoverNotes: handover.notes,
+  });
+}
+
+function handoverOf(booking: AccessBooking): HandoverDto | null {
+  if (!booking.handedOverOn || !booking.handedOverBy || !booking.competentPersonName) return null;
+  return {
+    handedOverOn: booking.handedOverOn, handedOverBy: booking.handedOverBy, competentPersonName: booking.competentPersonName,
+    tagReference: booking.tagReference, notes: booking.handoverNotes,
+  };
 }
 
 /** What a supplier is told when their link no longer has dates to answer. */

@@ -1,5 +1,5 @@
 import PDFDocument from 'pdfkit';
-import { ACCESS_SAFETY_NOTE, INSPECTION_RECORD_RETENTION_MONTHS } from '@hodboard/shared';
+import { ACCESS_SAFETY_NOTE, INSPECTION_RECORD_RETENTION_MONTHS, type HandoverDto } from '@hodboard/shared';
 import { formatLongDate } from './quote-pdf.js';
 
 export interface InspectionPdfRecord {
@@ -21,6 +21,7 @@ export interface InspectionPdfData {
   reference: string | null;
   erectedOn: string | null;
   struckOn: string | null;
+  handover: HandoverDto | null;
   keepUntil: string | null;
   retentionSource: string;
   adverseDays: string[];
@@ -72,6 +73,17 @@ export function renderInspectionPdf(data: InspectionPdfData): Promise<Buffer> {
   fact(doc, 'Struck', data.struckOn ? formatLongDate(data.struckOn) : 'still up', width);
   fact(doc, 'Keep until', data.keepUntil ? formatLongDate(data.keepUntil) : `while the access is up, then for ${INSPECTION_RECORD_RETENTION_MONTHS} months after it is struck`, width);
   if (data.adverseDays.length > 0) fact(doc, 'Wind stops while up', data.adverseDays.map(formatLongDate).join(', '), width);
+  doc.moveDown(0.8);
+
+  heading(doc, 'Handover', width);
+  if (data.handover) {
+    fact(doc, 'Handed over', `${formatLongDate(data.handover.handedOverOn)} by ${data.handover.handedOverBy}`, width);
+    fact(doc, "Supplier's competent person", data.handover.competentPersonName, width);
+    fact(doc, 'Tag or register ref', data.handover.tagReference ?? 'none recorded', width);
+    if (data.handover.notes) fact(doc, 'Notes', data.handover.notes, width);
+  } else {
+    doc.font('Helvetica').fontSize(10).fillColor(MUTED).text('No handover recorded.', { width });
+  }
   doc.moveDown(0.8);
 
   heading(doc, `Inspections (${data.records.length})`, width);

@@ -3,6 +3,7 @@ import type {
   AccessBookingInput,
   AccessState,
   AccessType,
+  HandoverInput,
   InspectionInput,
   QuotedHireWeeksDto,
   ScaffoldInspectionDto,
@@ -59,11 +60,17 @@ export interface AccessStateInput {
   state: AccessState;
   confirmedErect?: string;
   confirmedStrike?: string;
+  /** With erected: the supplier's handover. */
+  handover?: HandoverInput;
   version: number;
 }
 
 export function changeAccessState(bookingId: string, input: AccessStateInput): Promise<AccessBookingDto> {
   return http.post<AccessBookingDto>(`/access-bookings/${id(bookingId)}/state`, input);
+}
+
+export function recordHandover(bookingId: string, input: HandoverInput, version: number): Promise<AccessBookingDto> {
+  return http.put<AccessBookingDto>(`/access-bookings/${id(bookingId)}/handover`, { ...input, version });
 }
 
 export function listInspections(bookingId: string): Promise<ScaffoldInspectionDto[]> {

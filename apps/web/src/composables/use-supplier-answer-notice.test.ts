@@ -21,7 +21,7 @@ function booking(overrides: Partial<AccessBookingDto> = {}): AccessBookingDto {
     state: 'confirmed', requestedErect: '2027-02-26', requestedStrike: '2027-03-04', confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15',
     neededErect: '2027-03-09', neededStrike: '2027-03-15', weeklyRate: 18_000, minimumWeeks: 2, curingDays: 0, reference: null, notes: null, hire: null,
     inspection: { status: 'none', nextDue: null, lastInspectedOn: null, reasons: [], source: null, adverseDays: [] },
-    pendingChange: null, hasNoWork: false, cancelledBecause: null, version: 3, ...overrides,
+    pendingChange: null, handover: null, hasNoWork: false, cancelledBecause: null, version: 3, ...overrides,
   };
 }
 

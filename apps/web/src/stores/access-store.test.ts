@@ -29,7 +29,7 @@ function booking(id: string, overrides: Partial<AccessBookingDto> = {}): AccessB
     neededErect: '2027-03-01', neededStrike: '2027-03-12', weeklyRate: 18_000, minimumWeeks: 2, curingDays: 0, reference: null, notes: null,
     hire: { erect: '2027-03-01', strike: '2027-03-12', hireDays: 12, chargedWeeks: 2, pence: 36_000, pricedWeeks: 2, overPricedPence: 0 },
     inspection: { status: 'none', nextDue: null, lastInspectedOn: null, reasons: [], source: null, adverseDays: [] },
-    pendingChange: null, hasNoWork: false, cancelledBecause: null, version: 1, ...overrides,
+    pendingChange: null, handover: null, hasNoWork: false, cancelledBecause: null, version: 1, ...overrides,
   };
 }
 

@@ -6,6 +6,7 @@ import type {
   AccessBookingInput,
   AccessState,
   AccessType,
+  HandoverInput,
   InspectionInput,
   InspectionStatusDto,
   ResourceChangedMessage,
@@ -201,16 +202,33 @@ export const useAccessStore = defineStore('access', () => {
   }
 
   /** Optimistic: the booking shows its new state at once and goes back if the server refuses. */
-  async function changeState(bookingId: string, state: AccessState, dates: { confirmedErect?: string; confirmedStrike?: string } = {}): Promise<AccessBookingDto> {
+  async function changeState(
+    bookingId: string,
+    state: AccessState,
+    extra: { confirmedErect?: string; confirmedStrike?: string; handover?: HandoverInput } = {},
+  ): Promise<AccessBookingDto> {
     const before = bookings.value[bookingId];
     if (!before) throw new Error('That booking is no longer listed.');
     bookings.value[bookingId] = { ...before, state };
     try {
-      const saved = await saving(bookingId, () => accessApi.changeAccessState(bookingId, { state, ...dates, version: before.version }));
+      const saved = await saving(bookingId, () => accessApi.changeAccessState(bookingId, { state, ...extra, version: before.version }));
       bookings.value[bookingId] = saved;
       return saved;
     } catch (caught) {
       if (bookings.value[bookingId]?.state === state) bookings.value[bookingId] = before;
+      if (isApiError(caught, 'stale-version')) void refreshOne(bookingId).catch(() => undefined);
+      throw caught;
+    }
+  }
+
+  async function recordHandover(bookingId: string, input: HandoverInput): Promise<AccessBookingDto> {
+    const before = bookings.value[bookingId];
+    if (!before) throw new Error('That booking is no longer listed.');
+    try {
+      const saved = await saving(bookingId, () => accessApi.recordHandover(bookingId, input, before.version));
+      put(saved);
+      return saved;
+    } catch (caught) {
       if (isApiError(caught, 'stale-version')) void refreshOne(bookingId).catch(() => undefined);
       throw caught;
     }
@@ -262,6 +280,7 @@ export const useAccessStore = defineStore('access', () => {
     removeSupplier,
     create,
     changeState,
+    recordHandover,
     recordInspection,
     applyEvent,
     bindRealtime,

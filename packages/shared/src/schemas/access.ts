@@ -45,13 +45,32 @@ export const accessBookingInputSchema = z.object({
 export type AccessBookingInput = z.input<typeof accessBookingInputSchema>;
 export type AccessBookingValues = z.output<typeof accessBookingInputSchema>;
 
+/**
+ * The supplier handing the access over as ready to use: when, by whom, the competent person who signed it off, and
+ * the tag or register entry it carries.
+ */
+export const handoverInputSchema = z.object({
+  handedOverOn: isoDateSchema,
+  handedOverBy: requiredText(120, 'Handed over by'),
+  competentPersonName: requiredText(120, "The supplier's competent person"),
+  tagReference: optionalText(80),
+  notes: optionalText(2000),
+});
+export type HandoverInput = z.input<typeof handoverInputSchema>;
+export type HandoverDto = z.output<typeof handoverInputSchema>;
+
+/** Recording or correcting the handover of access already up (or since struck). */
+export const handoverUpdateSchema = handoverInputSchema.extend({ version: z.number().int().min(1) });
+
 export const accessStateChangeSchema = z.object({
   state: z.enum(accessStates),
   /** For confirmed: the dates the supplier confirmed; defaults to the requested ones. */
   confirmedErect: isoDateSchema.optional(),
   confirmedStrike: isoDateSchema.optional(),
+  /** For erected: the supplier's handover; its date is the day the access went up. */
+  handover: handoverInputSchema.optional(),
   version: z.number().int().min(1),
-});
+}).refine((change) => !change.handover || change.state === 'erected', { message: 'A handover goes with marking the access as up', path: ['handover'] });
 
 export const accessListQuerySchema = z.object({
   jobId: idSchema.optional(),
@@ -148,6 +167,8 @@ export interface AccessBookingDto {
   hire: HireCostDto | null;
   inspection: InspectionStatusDto;
   pendingChange: AccessChangeRequestDto | null;
+  /** The supplier's handover when the access went up; null until recorded. */
+  handover: HandoverDto | null;
   /** Still booked, but none of its jobs has days on the board (or all were cancelled): the supplier needs telling. */
   hasNoWork: boolean;
   /** Cancelled by Hodboard when its jobs left the board or were cancelled; null if the office cancelled it, or it is live. */
