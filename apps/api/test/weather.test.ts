@@ -119,11 +119,14 @@ describe('stand-downs and re-plans', () => {
     expect(view.assignments.find((a) => a.jobId === ids.jobId)!.days).toEqual(['2027-03-30', '2027-03-31']);
     expect(view.assignments.find((a) => a.jobId === nextJob)!.days).toEqual(['2027-04-01', '2027-04-02']);
     expect((await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200)).body.status).toBe('scheduled');
+    // One client, two jobs moved: one e-mail listing both.
     const clientMails = h.mailer.outbox.filter((m) => m.to === 'farm@example.org');
-    expect(clientMails).toHaveLength(2);
-    expect(clientMails[0]!.text).toContain('Tuesday 30 March');
+    expect(clientMails).toHaveLength(1);
+    expect(clientMails[0]!.subject).toMatch(/^New dates for your jobs \S+ and \S+$/);
+    expect(clientMails[0]!.text).toContain('now starting on Tuesday 30 March and expected to finish on Wednesday 31 March');
+    expect(clientMails[0]!.text).toContain('now starting on Thursday 1 April and expected to finish on Friday 2 April');
     await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(409);
-    expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(2);
+    expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(1);
   });
 
   it('plans the commit in its own transaction: a previewed plan the board no longer allows is refused, and the e-mail gives the dates applied', async () => {
@@ -153,6 +156,38 @@ describe('stand-downs and re-plans', () => {
     expect(mails).toHaveLength(1);
     expect(mails[0]!.text).toContain('Tuesday 30 March');
     expect(mails[0]!.text).not.toContain('April');
+  });
+
+  it('e-mails each client once with every job of theirs that moved, and the client of a rippled job too', async () => {
+    const nextJob = await followingJob();
+    const otherClient = await request(h.app).post('/api/clients').set(owner.auth).send({ name: 'Ash Row Cottages', contacts: [{ name: 'Robin Ash', email: 'robin@ashrow.example' }] }).expect(201);
+    const site = await request(h.app).post('/api/sites').set(owner.auth).send({ clientId: otherClient.body.id, addressLine1: '4 Ash Row', town: 'Lowmoor', postcode: 'LM3 9QF' }).expect(201);
+    const third = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: otherClient.body.id, siteId: site.body.id, title: 'Rebed ridge tiles', workTypes: ['roofing'], estimatedWorkingDays: 1 }).expect(201);
+    await request(h.app).post(`/api/jobs/${third.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: third.body.id, crewId: ids.crewId, startDate: '2027-04-02' }).expect(201);
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const committed = (await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    // Source: gov.uk bank holidays, England and Wales 2027 (Good Friday 26 March, Easter Monday 29 March).
+    expect(committed.moves.map((m) => [m.jobId, m.toDays])).toEqual([
+      [ids.jobId, ['2027-03-30', '2027-03-31']],
+      [nextJob, ['2027-04-01', '2027-04-02']],
+      [third.body.id, ['2027-04-05']],
+    ]);
+    expect(committed.clientsToTell.sort()).toEqual(['Ash Row Cottages', 'Marsh End Farm']);
+    const farm = h.mailer.outbox.filter((m) => m.to === 'farm@example.org');
+    const ash = h.mailer.outbox.filter((m) => m.to === 'robin@ashrow.example');
+    expect([farm.length, ash.length]).toEqual([1, 1]);
+    expect(ash[0]!.text).toContain('Dear Robin Ash');
+    expect(ash[0]!.text).toContain('another job of ours');
+    expect(ash[0]!.text).toContain('rebed ridge tiles at 4 Ash Row');
+    expect(ash[0]!.text).toContain('now on Monday 5 April');
+    expect(ash[0]!.text).not.toContain('repoint');
+    const keys = (await h.dataSource.query(`SELECT dedupe_key FROM notification WHERE dedupe_key LIKE 'replan:%' ORDER BY dedupe_key`)) as Array<{ dedupe_key: string }>;
+    expect(keys).toEqual([
+      { dedupe_key: `replan:${hold.id}:client:${otherClient.body.id}` },
+      { dedupe_key: `replan:${hold.id}:client:${ids.clientId}` },
+    ].sort((a, b) => a.dedupe_key.localeCompare(b.dedupe_key)));
   });
 
   it('lets only one of two simultaneous re-plans through', async () => {

@@ -11,6 +11,7 @@ import {
   type DayWeatherDto,
   type RuleSettings,
   type PlacedSpan,
+  type ReplanMoveDto,
   type ReplanPreviewDto,
   type HoldWithdrawValues,
   type ReplanValues,
@@ -300,7 +301,7 @@ export class WeatherService {
           await new FirmScope(manager, actor.firmId).lockForUpdate(Job, hold.jobId, 'Job');
           const status = await this.settleJobStatus(manager, actor, hold);
           await recordAudit(manager, actor, { entity: 'job', entityId: hold.jobId, action: 'replanned', after: { mode: input.mode, moves: plan.moves.length, ...status } });
-          return this.clientMails(manager, actor, holdId, preview);
+          return this.clientMails(manager, actor, hold, preview);
         },
       };
     }, 'replanned');
@@ -481,33 +482,39 @@ export class WeatherService {
     return { preview, plan, spans };
   }
 
-  /** One e-mail per client per moved job per re-plan; the notification key makes a resend impossible. */
-  private async clientMails(manager: EntityManager, actor: Actor, holdId: string, preview: ReplanPreviewDto): Promise<AfterCommit[]> {
+  /**
+   * One e-mail per client per re-plan, listing every job of theirs that moved. The notification key (stand-down and
+   * client) is claimed in the commit's transaction, so a second commit of the same change claims nothing and nobody
+   * is told twice.
+   */
+  private async clientMails(manager: EntityManager, actor: Actor, hold: WeatherHold, preview: ReplanPreviewDto): Promise<AfterCommit[]> {
+    if (preview.moves.length === 0) return [];
     const firm = await manager.findOneByOrFail(Firm, { id: actor.firmId });
-    const tasks: AfterCommit[] = [];
-    // Read and claimed for all the moved jobs at once: a re-plan can move hundreds. The dedupe key makes a second commit
-    // of the same plan claim nothing, so nobody is told twice.
+    // Read for all the moved jobs at once: a re-plan can move hundreds.
     const jobs = await manager.find(Job, { where: { id: In(preview.moves.map((m) => m.jobId)), firmId: actor.firmId }, relations: { client: true, site: true } });
     const jobById = new Map(jobs.map((job) => [job.id, job]));
-    const toTell = preview.moves.filter((move) => jobById.get(move.jobId)?.client.email);
-    const claimed = new Set<string>();
-    if (toTell.length > 0) {
-      const inserted = await manager.createQueryBuilder().insert().into(Notification)
-        .values(toTell.map((move) => ({ firmId: actor.firmId, dedupeKey: `replan:${holdId}:${move.jobId}`, channel: 'email', recipient: jobById.get(move.jobId)!.client.email! })))
-        .orIgnore().returning('dedupe_key').execute();
-      for (const row of inserted.raw as Array<{ dedupe_key: string }>) claimed.add(row.dedupe_key);
+    const byClient = new Map<string, { client: Client; moves: Array<{ job: Job; move: ReplanMoveDto }> }>();
+    for (const move of preview.moves) {
+      const job = jobById.get(move.jobId);
+      if (!job?.client.email) continue;
+      const entry = byClient.get(job.clientId) ?? { client: job.client, moves: [] };
+      entry.moves.push({ job, move });
+      byClient.set(job.clientId, entry);
     }
-    for (const move of toTell) {
-      const job = jobById.get(move.jobId)!;
-      if (!claimed.has(`replan:${holdId}:${job.id}`)) continue;
-      const first = move.toDays[0]!;
-      const last = move.toDays[move.toDays.length - 1]!;
-      const when = (d: string) => new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', timeZone: 'UTC' }).format(new Date(`${d}T12:00:00Z`));
-      const address = formatAddress(job.site);
-      const text = `Dear ${job.client.contactName ?? job.client.name},\n\nThe weather has stopped work on ${job.title.toLowerCase()} at ${address} (our ref ${job.reference}).\n\nWe now plan to start on ${when(first)}${first === last ? '' : ` and expect to finish on ${when(last)}`}. We will keep you posted if the forecast changes again.\n\nWith thanks for your patience,\n${firm.name}${firm.phone ? `\n${firm.phone}` : ''}`;
+    if (byClient.size === 0) return [];
+    const keyOf = (clientId: string) => `replan:${hold.id}:client:${clientId}`;
+    const inserted = await manager.createQueryBuilder().insert().into(Notification)
+      .values([...byClient].map(([clientId, { client }]) => ({ firmId: actor.firmId, dedupeKey: keyOf(clientId), channel: 'email', recipient: client.email! })))
+      .orIgnore().returning('dedupe_key').execute();
+    const claimed = new Set((inserted.raw as Array<{ dedupe_key: string }>).map((row) => row.dedupe_key));
+    const tasks: AfterCommit[] = [];
+    for (const [clientId, { client, moves }] of byClient) {
+      if (!claimed.has(keyOf(clientId))) continue;
+      const text = replanMailText(firm, client, hold, moves);
+      const references = moves.map(({ job }) => job.reference);
       tasks.push(() => this.mailer.send({
-        to: job.client.email!,
-        subject: `New dates for your job ${job.reference}`,
+        to: client.email!,
+        subject: `New dates for your ${references.length === 1 ? 'job' : 'jobs'} ${listInWords(references)}`,
         text,
         html: text.split('\n\n').map((p) => `<p>${escapeHtml(p).replaceAll('\n', '<br>')}</p>`).join(''),
       }));
@@ -526,6 +533,35 @@ export class WeatherService {
       forecastFetchedAt: hold.forecastFetchedAt?.toISOString() ?? null, forecastWasStale: hold.forecastWasStale, replanMode: hold.replanMode, version: hold.version,
     }));
   }
+}
+
+/** The client's e-mail after a re-plan, in plain words: why, then each of their jobs with its new dates. */
+function replanMailText(firm: Firm, client: Client, hold: WeatherHold, moves: Array<{ job: Job; move: ReplanMoveDto }>): string {
+  const when = (d: string) => new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', timeZone: 'UTC' }).format(new Date(`${d}T12:00:00Z`));
+  const held = moves.find(({ job }) => job.id === hold.jobId)?.job;
+  const why = held
+    ? `The weather has stopped work on ${held.title.toLowerCase()} at ${formatAddress(held.site)} (our ref ${held.reference}), so we have changed the dates of ${moves.length === 1 ? 'your job' : 'your jobs'} with us.`
+    : `The weather has stopped work on another job of ours, and that moves the dates of ${moves.length === 1 ? 'your job' : 'your jobs'} with us.`;
+  const lines = moves.map(({ job, move }) => {
+    const first = move.toDays[0]!;
+    const last = move.toDays[move.toDays.length - 1]!;
+    const dates = first === move.fromDays[0]
+      ? `same start, now expected to finish on ${when(last)}`
+      : first === last ? `now on ${when(first)}` : `now starting on ${when(first)} and expected to finish on ${when(last)}`;
+    return `- ${job.reference}, ${job.title.toLowerCase()} at ${formatAddress(job.site)}: ${dates}.`;
+  });
+  return [
+    `Dear ${client.contactName ?? client.name},`,
+    why,
+    lines.join('\n'),
+    'We will keep you posted if the forecast changes again.',
+    `With thanks for your patience,\n${firm.name}${firm.phone ? `\n${firm.phone}` : ''}`,
+  ].join('\n\n');
+}
+
+/** "J-1", "J-1 and J-2", "J-1, J-2 and J-3". */
+function listInWords(items: string[]): string {
+  return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
 }
 
 /** What a commit compares with the preview it was shown: every job's days and every booking's dates it would change. */
