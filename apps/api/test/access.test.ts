@@ -256,6 +256,43 @@ describe('a confirmed booking', () => {
   });
 });
 
+describe('a booking shared by neighbouring jobs at one site', () => {
+  async function neighbour(siteId: string, startDate: string) {
+    const job = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId, title: 'Rebuild barn chimney', workTypes: ['repairs'], estimatedWorkingDays: 2 }).expect(201);
+    await request(h.app).post(`/api/jobs/${job.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    const placed = await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: job.body.id, crewId: ids.crewId, startDate }).expect(201);
+    return { jobId: job.body.id as string, assignment: placed.body.assignment as { id: string; version: number } };
+  }
+  const bookingCount = async () => Number(((await h.dataSource.query(`SELECT COUNT(*)::int AS n FROM access_booking`)) as Array<{ n: number }>)[0]!.n);
+
+  it('spans the days of both jobs and follows a move of either', async () => {
+    const next = await neighbour(ids.siteId, '2027-03-08');
+    const shared = (await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId, next.jobId], accessType: 'scaffold', supplierId }).expect(201)).body as AccessBookingDto;
+    // Mon 1 – Wed 3 and Mon 8 – Tue 9 March: up the working day before the first, down the working day after the last.
+    expect(shared).toMatchObject({ jobIds: [ids.jobId, next.jobId], requestedErect: '2027-02-26', requestedStrike: '2027-03-10', neededErect: '2027-02-26', neededStrike: '2027-03-10' });
+
+    // The second job moves to Mon 15 – Tue 16 March: the strike follows it to Wed 17.
+    await request(h.app).put(`/api/assignments/${next.assignment.id}`).set(owner.auth).send({ crewId: ids.crewId, startDate: '2027-03-15', workingDays: 2, version: next.assignment.version }).expect(200);
+    expect(await bookingNow(shared.id)).toMatchObject({ requestedErect: '2027-02-26', requestedStrike: '2027-03-17' });
+    // The first moves to Wed 24 – Fri 26 Feb: the erect follows it to Tue 23 Feb.
+    await moveJob('2027-02-24');
+    expect(await bookingNow(shared.id)).toMatchObject({ requestedErect: '2027-02-23', requestedStrike: '2027-03-17' });
+    const board = (await request(h.app).get('/api/board').query({ from: '2027-02-22', to: '2027-03-19' }).set(owner.auth).expect(200)).body as BoardDto;
+    expect(board.accessBands).toEqual([expect.objectContaining({ bookingId: shared.id, jobIds: [ids.jobId, next.jobId], erect: '2027-02-23', strike: '2027-03-17' })]);
+  });
+
+  it('refuses to share one booking between jobs at different sites, and books nothing', async () => {
+    const elsewhere = await request(h.app).post('/api/sites').set(owner.auth).send({ clientId: ids.clientId, addressLine1: '7 Mill Race', town: 'Lowmoor', postcode: 'LM3 2RR' }).expect(201);
+    const far = await neighbour(elsewhere.body.id, '2027-03-08');
+    const before = await bookingCount();
+    const res = await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId, far.jobId], accessType: 'scaffold', supplierId }).expect(400);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toMatchObject({ code: 'validation-failed', errors: [{ path: 'jobIds', message: expect.stringMatching(/same site/) }] });
+    expect(await bookingCount()).toBe(before);
+  });
+});
+
 describe('supplier links across firms', () => {
   /** A second firm with its own job, supplier and confirmed scaffold, whose job has moved: a live link of its own. */
   async function otherFirmWithPendingChange() {

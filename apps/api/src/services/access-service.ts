@@ -163,6 +163,9 @@ export class AccessService {
       const scope = new FirmScope(manager, actor.firmId);
       const supplier = await scope.get(Supplier, input.supplierId, 'Supplier');
       await scope.assertAllExist(Job, input.jobIds, 'Job');
+      // One scaffold serves neighbouring jobs at one site; jobs at different sites need a booking each.
+      const sites = new Set((await scope.find(Job, { where: { id: In(input.jobIds) }, select: { id: true, firmId: true, siteId: true } })).map((job) => job.siteId));
+      if (sites.size > 1) throw errors.validation([{ path: 'jobIds', message: 'Jobs sharing a booking must be at the same site; book access for each site separately' }]);
       const calendars = await loadCalendars(manager, actor.firmId);
       const needed = await this.neededWindow(manager, actor.firmId, input.jobIds, input.curingDays, calendars);
       const erect = input.requestedErect ?? needed?.erect ?? null;
