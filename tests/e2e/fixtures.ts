@@ -25,7 +25,8 @@ export interface CaughtMail {
 
 const SCREENSHOT_DIR = fileURLToPath(new URL('../screenshots/', import.meta.url));
 
-function mailUrl(path: string): string {
+/** An address on the local mail catcher (its page at the root, its JSON under /messages), from E2E_MAIL_URL. */
+export function mailUrl(path = ''): string {
   const base = process.env.E2E_MAIL_URL ?? 'http://127.0.0.1:1080';
   return new URL(path, base.endsWith('/') ? base : `${base}/`).toString();
 }
