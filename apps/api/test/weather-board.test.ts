@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
-import type { BoardDto, ForecastHour, WeatherHoldDto } from '@hodboard/shared';
+import type { BoardDto, ForecastHour, WeatherHoldDto, WeatherOutlookDto } from '@hodboard/shared';
 import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
 import type { ForecastProvider } from '../src/services/weather/forecast-provider.js';
 import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
@@ -110,5 +110,72 @@ describe('stood-down days on the board', () => {
     const hold = (await raise(['2027-03-25'])).body as WeatherHoldDto;
     await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'none', version: hold.version }).expect(200);
     expect((await board()).holdDays).toEqual([{ holdId: hold.id, jobId: ids.jobId, date: '2027-03-25', reason: 'wind', status: 'replanned' }]);
+  });
+});
+
+describe('the knock-on of an at-risk day in the outlook', () => {
+  /** The chimney job promised for Tue 30 March, a garden wall booked after it on the same crew, and a confirmed scaffold. */
+  async function setUp(): Promise<{ wallId: string; bookingId: string }> {
+    const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+    await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth).send({ ...job.body, targetFinish: '2027-03-30', version: job.body.version }).expect(200);
+    const wall = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Garden wall after the stack', workTypes: ['garden-wall'], estimatedWorkingDays: 2, targetFinish: '2027-04-05' }).expect(201);
+    await request(h.app).post(`/api/jobs/${wall.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: wall.body.id, crewId: ids.crewId, startDate: '2027-03-31' }).expect(201);
+    const supplier = await request(h.app).post('/api/suppliers').set(owner.auth)
+      .send({ name: 'Steady Tube', email: 'desk@steadytube.example', weeklyRates: { scaffold: 12_000 }, minimumWeeks: 1 }).expect(201);
+    const booking = await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId], accessType: 'scaffold', supplierId: supplier.body.id }).expect(201);
+    await request(h.app).post(`/api/access-bookings/${booking.body.id}/state`).set(owner.auth)
+      .send({ state: 'confirmed', confirmedErect: '2027-03-24', confirmedStrike: '2027-03-31', version: booking.body.version }).expect(200);
+    return { wallId: wall.body.id as string, bookingId: booking.body.id as string };
+  }
+  const outlook = async () => (await request(h.app).get('/api/weather/outlook').query({ days: 7 }).set(owner.auth).expect(200)).body as WeatherOutlookDto;
+
+  it('pushes the job a working day past Easter, ripples the next job, asks the scaffold supplier and prices the extra hire', async () => {
+    const { wallId, bookingId } = await setUp();
+    provider.scenario = 'gale';
+    await refresh();
+    const view = await outlook();
+    const first = view.atRisk.find((r) => r.jobId === ids.jobId && r.date === '2027-03-25')!;
+    const second = view.atRisk.find((r) => r.jobId === ids.jobId && r.date === '2027-03-30')!;
+    // Worked by hand. The job is Thu 25 and Tue 30 March (Good Friday 26 and Easter Monday 29 March are bank holidays:
+    // gov.uk bank holidays, England and Wales 2027). Losing Thu 25 moves its start to the next working day, Tue 30, and
+    // it runs Tue 30 – Wed 31, a day past the promised Tue 30. The garden wall (Wed 31 – Thu 1 April) ripples to
+    // Thu 1 – Fri 2 April, still inside its Mon 5 April promise.
+    expect(first.knockOn!.job).toEqual({
+      jobId: ids.jobId, reference: expect.any(String), finishNow: '2027-03-30', finishAfterPush: '2027-03-31', targetFinish: '2027-03-30', passesTargetFinish: true,
+    });
+    expect(first.knockOn!.laterJobs).toEqual([
+      { jobId: wallId, reference: expect.any(String), finishNow: '2027-04-01', finishAfterPush: '2027-04-02', targetFinish: '2027-04-05', passesTargetFinish: false },
+    ]);
+    // The scaffold goes up the working day before the first job day (Thu 25, the day before Tue 30 over Easter) and
+    // comes down the working day after the last (Thu 1 April). Hire Thu 25 Mar → Thu 1 Apr is 7 days, one week, as the
+    // booked Wed 24 → Wed 31 March is: no extra hire, but the agreed dates change, so the supplier is asked.
+    expect(first.knockOn!.access).toEqual([{
+      bookingId, accessType: 'scaffold', state: 'confirmed', needsChangeRequest: true,
+      fromErect: '2027-03-24', fromStrike: '2027-03-31', toErect: '2027-03-25', toStrike: '2027-04-01', extraHireWeeks: 0, extraHirePence: 0,
+    }]);
+    expect(first.knockOn!.extraHirePence).toBe(0);
+    // Losing Tue 30 keeps Thu 25 and adds a day at the end: Thu 25, Tue 30, Wed 31. The scaffold stays up from Wed 24
+    // and comes down Thu 1 April: 8 days, a part second week, so one week more at £120.00 (hire per week or part week).
+    expect(second.knockOn!.job).toMatchObject({ finishNow: '2027-03-30', finishAfterPush: '2027-03-31', passesTargetFinish: true });
+    expect(second.knockOn!.laterJobs.map((j) => [j.jobId, j.finishAfterPush])).toEqual([[wallId, '2027-04-02']]);
+    expect(second.knockOn!.access).toEqual([expect.objectContaining({
+      needsChangeRequest: true, fromErect: '2027-03-24', toErect: '2027-03-24', toStrike: '2027-04-01', extraHireWeeks: 1, extraHirePence: 12_000,
+    })]);
+    expect(second.knockOn!.extraHirePence).toBe(12_000);
+  });
+
+  it('works the knock-on out without writing: the board and the booking are as they were', async () => {
+    const { bookingId } = await setUp();
+    provider.scenario = 'gale';
+    await refresh();
+    const before = await board();
+    expect((await outlook()).atRisk.some((r) => r.knockOn)).toBe(true);
+    const after = await board();
+    expect(after.assignments).toEqual(before.assignments);
+    const booking = await request(h.app).get(`/api/access-bookings/${bookingId}`).set(owner.auth).expect(200);
+    expect(booking.body).toMatchObject({ confirmedErect: '2027-03-24', confirmedStrike: '2027-03-31', pendingChange: null });
+    expect(h.mailer.outbox.filter((m) => m.to === 'desk@steadytube.example')).toHaveLength(0);
   });
 });

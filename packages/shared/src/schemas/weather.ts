@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { idSchema, isoDateSchema, optionalText } from './common.js';
 import { holdReasons, type HoldReason } from '../terms/weather.js';
 import type { ReasonUnit } from '../rules/forecast.js';
+import type { AccessState, AccessType } from '../terms/access.js';
 
 export const holdReasonSchema = z.enum(holdReasons);
 
@@ -143,11 +144,52 @@ export interface DayWeatherDto {
 
 export const forecastRefreshSchema = z.object({ siteId: idSchema.optional() });
 
+/** What losing one at-risk day would do to a live access booking, were the job pushed. */
+export interface OutlookAccessKnockOnDto {
+  bookingId: string;
+  accessType: AccessType;
+  state: AccessState;
+  /** Confirmed or up: the supplier would be asked for new dates. A requested booking just follows the job. */
+  needsChangeRequest: boolean;
+  fromErect: string | null;
+  fromStrike: string | null;
+  toErect: string;
+  toStrike: string;
+  /** Extra weeks charged over the hire as it stands, and what they cost in pence; null while the hire has no dates. */
+  extraHireWeeks: number | null;
+  extraHirePence: number | null;
+}
+
+/** A job whose dates a one-day push would change: the one stood down, or a later job of its crew rippled along. */
+export interface OutlookJobKnockOnDto {
+  jobId: string;
+  reference: string;
+  finishNow: string;
+  finishAfterPush: string;
+  targetFinish: string | null;
+  /** The new finish is after the finish promised to the client; compare `finishNow` to tell whether it already was. */
+  passesTargetFinish: boolean;
+}
+
+/** A one-day push of the job from an at-risk day, worked out with the same re-plan rules a stand-down uses. */
+export interface OutlookKnockOnDto {
+  job: OutlookJobKnockOnDto;
+  /** The same crew's later jobs that would ripple along, in start order. */
+  laterJobs: OutlookJobKnockOnDto[];
+  access: OutlookAccessKnockOnDto[];
+  /** The extra hire of every booking with dated hire, in pence. */
+  extraHirePence: number;
+}
+
 export interface WeatherOutlookDto {
   from: string;
   to: string;
   days: DayWeatherDto[];
-  atRisk: Array<{ jobId: string; reference: string; date: string; verdict: 'caution' | 'stop'; crewId: string; hasConfirmedAccess: boolean; targetFinish: string | null }>;
+  atRisk: Array<{
+    jobId: string; reference: string; date: string; verdict: 'caution' | 'stop'; crewId: string; hasConfirmedAccess: boolean; targetFinish: string | null;
+    /** Null when the day is not one of the job's working days, so losing it moves nothing. */
+    knockOn: OutlookKnockOnDto | null;
+  }>;
 }
 
 export * from './weather-limits.js';

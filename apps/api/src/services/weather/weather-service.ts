@@ -36,6 +36,7 @@ import type { Mailer } from '../mailer.js';
 import type { JobSiteInfo, PlacedAssignment, ScheduleService } from '../schedule-service.js';
 import { formatAddress } from '../site-service.js';
 import type { ForecastService } from './forecast-service.js';
+import { knockOnKey, outlookKnockOns } from './outlook-knock-on.js';
 
 const HOUR = 3_600_000;
 
@@ -182,14 +183,21 @@ export class WeatherService {
     const verdicts = (await this.dayVerdicts(manager, actor.firmId, assignments, calendars)).filter((d) => d.date >= from && d.date <= to);
     const jobs = await scope.find(Job, { where: { id: In(assignments.map((a) => a.jobId).concat(['00000000-0000-0000-0000-000000000000'])) } });
     const confirmed = await scope.query(AccessBooking, 'b').andWhere("b.state IN ('confirmed', 'erected')").getMany();
+    const atRisk = verdicts.filter((d) => d.verdict !== 'go');
+    const assignmentById = new Map(assignments.map((a) => [a.id, a]));
+    const knockOns = await outlookKnockOns(
+      manager, actor.firmId, atRisk.flatMap((d) => { const assignment = assignmentById.get(d.assignmentId); return assignment ? [{ assignment, date: d.date }] : []; }),
+      calendars, this.access,
+    );
     return {
       from, to, days: verdicts,
-      atRisk: verdicts.filter((d) => d.verdict !== 'go').map((d) => {
+      atRisk: atRisk.map((d) => {
         const job = jobs.find((j) => j.id === d.jobId);
         return {
           jobId: d.jobId, reference: job?.reference ?? '', date: d.date, verdict: d.verdict as 'caution' | 'stop',
-          crewId: assignments.find((a) => a.id === d.assignmentId)?.crewId ?? '',
+          crewId: assignmentById.get(d.assignmentId)?.crewId ?? '',
           hasConfirmedAccess: confirmed.some((b) => b.jobIds.includes(d.jobId)), targetFinish: job?.targetFinish ?? null,
+          knockOn: knockOns.get(knockOnKey(d.assignmentId, d.date)) ?? null,
         };
       }),
     };
