@@ -1,6 +1,6 @@
 import request from 'supertest';
 import sharp from 'sharp';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { AccessBookingDto, BoardDto, PhotoDto, ScaffoldInspectionDto } from '@hodboard/shared';
 import { ForecastHourRow, ScaffoldInspection } from '../src/entities/index.js';
 import { createMailCatcher, type CaughtMail, type MailCatcher } from '../src/fakes/mail-catcher.js';
@@ -470,6 +470,43 @@ describe('bookings whose jobs leave the board or are cancelled', () => {
     await cancelJob();
     // Only Mon 8 – Tue 9 March left: up Fri 5, down Wed 10.
     expect(await bookingNow(shared.id)).toMatchObject({ state: 'requested', jobIds: [next.body.id], requestedErect: '2027-03-05', requestedStrike: '2027-03-10', hasNoWork: false });
+  });
+});
+
+describe('live updates for the crews on the job', () => {
+  function listen() {
+    const seen: Array<{ type: string; id: string; crewIds?: string[] }> = [];
+    const stop = h.services.events.subscribe((event) => {
+      if (event.type.startsWith('access:')) seen.push({ type: event.type, id: event.id, crewIds: event.crewIds });
+    });
+    return { seen, stop };
+  }
+
+  it("sends a booking's changes and its supplier's answer to the rooms of the crews placed on its jobs", async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    const { seen, stop } = listen();
+    try {
+      await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+      await vi.waitFor(() => expect(seen).toContainEqual({ type: 'access:updated', id: booking.id, crewIds: [ids.crewId] }));
+      await moveJob('2027-03-10');
+      await request(h.app).post(`/api/public/supplier-links/${linkToken()}`).send({ answer: 'accept' }).expect(200);
+      await vi.waitFor(() => expect(seen).toContainEqual({ type: 'access:answered', id: booking.id, crewIds: [ids.crewId] }));
+    } finally {
+      stop();
+    }
+  });
+
+  it('tells only the office about a booking none of whose jobs is on a crew', async () => {
+    const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+    await request(h.app).delete(`/api/assignments/${job.body.assignment.id}`).query({ version: job.body.assignment.version }).set(owner.auth).expect(200);
+    const booking = (await book()).body as AccessBookingDto;
+    const { seen, stop } = listen();
+    try {
+      await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'cancelled', version: booking.version }).expect(200);
+      await vi.waitFor(() => expect(seen).toContainEqual({ type: 'access:updated', id: booking.id, crewIds: [] }));
+    } finally {
+      stop();
+    }
   });
 });
 

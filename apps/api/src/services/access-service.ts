@@ -916,8 +916,18 @@ export class AccessService {
     return result;
   }
 
+  /**
+   * Tells the office, and the crews placed on the booking's jobs so a crew lead's phone changes with it. The crews are
+   * looked up after commit; if that fails the office still hears.
+   */
   private publish(firmId: string, type: string, booking: AccessBooking): void {
-    this.events.publish({ firmId, type, id: booking.id, version: booking.version });
+    const event = { firmId, type, id: booking.id, version: booking.version };
+    void new FirmScope(this.dataSource.manager, firmId)
+      .find(Assignment, { where: { jobId: In(booking.jobIds) }, select: { id: true, firmId: true, crewId: true } })
+      .then(
+        (rows) => this.events.publish({ ...event, crewIds: [...new Set(rows.map((row) => row.crewId))].sort() }),
+        () => this.events.publish(event),
+      );
   }
 }
 

@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import { accessTypeLabels } from '@hodboard/shared';
+import { accessStateLabels, accessTypeLabels } from '@hodboard/shared';
 import type {
   AccessBookingDto,
   AccessBookingInput,
@@ -69,6 +69,19 @@ export const inspectionStatusLabels: Record<InspectionStatusDto['status'], strin
   overdue: 'Inspection overdue',
   unsafe: 'Marked not safe',
 };
+
+/** How a band is named on the board, and what about it needs a look; the grid and the phone list say the same. */
+export function bandSummary(band: AccessBandView): { text: string; flags: string[]; isWarn: boolean } {
+  const flags: string[] = [];
+  if (band.inspection === 'due' || band.inspection === 'overdue' || band.inspection === 'unsafe') flags.push(inspectionStatusLabels[band.inspection]);
+  if (band.hasPendingChange) flags.push('New dates asked of the supplier');
+  if (band.state === 'requested') flags.push('Not confirmed yet');
+  return {
+    text: `${accessTypeLabels[band.accessType]} ${accessStateLabels[band.state].toLowerCase()}`,
+    flags,
+    isWarn: band.inspection === 'overdue' || band.inspection === 'unsafe',
+  };
+}
 
 export interface AccessWorkNotice {
   /** A few words for a tray card. */
