@@ -63,6 +63,7 @@ function probeFor(method: string, path: string): { url: string; body?: object } 
   const bodies: Record<string, object> = {
     'POST /api/weather-holds/:id/preview': { mode: 'push', version: 1 },
     'POST /api/weather-holds/:id/commit': { mode: 'push', version: 1 },
+    'POST /api/weather-holds/:id/withdraw': { version: 1 },
     'POST /api/assignments/:id/progress': { date: '2027-03-01', remainingWorkingDays: 1, version: 1 },
     'PUT /api/quotes/:id': { content: quotesB.content, version: 1 },
     'POST /api/quotes/:id/send': { version: 1 },
