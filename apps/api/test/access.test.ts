@@ -6,7 +6,7 @@ import { ForecastHourRow, ScaffoldInspection } from '../src/entities/index.js';
 import { createMailCatcher, type CaughtMail, type MailCatcher } from '../src/fakes/mail-catcher.js';
 import { scenarioHours } from '../src/fakes/weather-scenarios.js';
 import { SmtpMailer } from '../src/services/mailer.js';
-import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+import { addPerson, createHarness, populateFirm, signIn, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 import { binaryParser, pdfText } from './quotes-helpers.js';
 
 let h: Harness;
@@ -64,6 +64,25 @@ describe('a booking that is only requested', () => {
     await moveJob('2027-03-10');
     expect(await bookingNow(booking.id)).toMatchObject({ requestedErect: '2027-03-09', requestedStrike: '2027-03-15', pendingChange: null });
     expect(h.mailer.outbox.filter((m) => m.to === 'hire@loftypoles.example')).toHaveLength(0);
+  });
+});
+
+describe('the lead time a supplier needs', () => {
+  const notConfirmed = async () =>
+    ((await request(h.app).get('/api/board').query({ from: '2027-03-01', to: '2027-03-05' }).set(owner.auth).expect(200)).body as BoardDto).conflicts.filter((c) => c.kind === 'access-not-confirmed');
+
+  it('flags a request not confirmed by the working day the supplier needs, until it is confirmed', async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    // Up Fri 26 Feb with 3 working days' notice: confirm by Tue 23 Feb.
+    h.now.value = new Date('2027-02-22T12:00:00Z');
+    expect(await notConfirmed()).toEqual([]);
+    h.now.value = new Date('2027-02-23T08:00:00Z');
+    expect(await notConfirmed()).toEqual([expect.objectContaining({
+      jobId: ids.jobId, severity: 'warning', date: null,
+      message: "Scaffold not confirmed; Lofty Poles Scaffolding needs 3 working days' notice (by 2027-02-23)",
+    })]);
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
+    expect(await notConfirmed()).toEqual([]);
   });
 });
 
@@ -164,6 +183,23 @@ describe('a confirmed booking', () => {
     const rows = (await h.dataSource.query(`SELECT status, supplier_note FROM access_change_request WHERE booking_id = $1 ORDER BY created_at`, [booking.id])) as unknown[];
     expect(rows).toEqual([{ status: 'superseded', supplier_note: 'Crew free Monday only' }, { status: 'accepted', supplier_note: null }]);
     expect((await request(h.app).get(`/api/public/supplier-links/${first}`).expect(401)).body.detail).toMatch(/replaced by a newer request/);
+  });
+
+  it.each([
+    ['an acceptance', { answer: 'accept' }, 'supplier-accepted', { confirmedErect: '2027-03-09', confirmedStrike: '2027-03-15', by: 'Lofty Poles Scaffolding', note: null }],
+    ['a counter-proposal', { answer: 'propose', erectDate: '2027-03-08', strikeDate: '2027-03-16', note: 'Crew free Monday only' }, 'supplier-countered',
+      { confirmedErect: '2027-03-08', confirmedStrike: '2027-03-16', by: 'Lofty Poles Scaffolding', note: 'Crew free Monday only' }],
+  ])("writes one audit line for %s, by nobody signed in, with the dates before and after", async (_name, answer, action, after) => {
+    const booking = await confirmed();
+    await moveJob('2027-03-10');
+    await request(h.app).post(`/api/public/supplier-links/${linkToken()}`).send(answer).expect(200);
+    const rows = await h.dataSource.query(
+      `SELECT firm_id, actor_user_id, action, before, after FROM audit_event WHERE entity_id = $1 AND action LIKE 'supplier-%'`, [booking.id],
+    );
+    expect(rows).toEqual([{
+      firm_id: owner.session.firm.id, actor_user_id: null, action,
+      before: { confirmedErect: '2027-02-26', confirmedStrike: '2027-03-04' }, after,
+    }]);
   });
 
   it('refuses the link once it has expired', async () => {
@@ -584,6 +620,22 @@ describe('inspections', () => {
       .send({ inspectedAt: '2027-02-26T14:30:00Z', inspectorName: 'R. Quayle', result: 'unsafe', defects: 'Missing toe board, lift 2' }).expect(201);
     h.now.value = new Date('2027-03-01T07:30:00Z');
     expect((await boardOn()).conflicts.find((c) => c.kind === 'inspection-overdue')).toMatchObject({ severity: 'stop' });
+  });
+
+  it("refuses an operative on the job's crew who tries to record an inspection, and records nothing", async () => {
+    const booking = await erected();
+    const operative = await addPerson(h, owner, 'operative', 'op@gorse.example');
+    const people = (await request(h.app).get('/api/people').set(owner.auth).expect(200)).body as Array<{ id: string; email: string }>;
+    const member = people.find((p) => p.email === 'op@gorse.example')!.id;
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ name: 'Gable crew', colour: '#445566', memberIds: [member] }).expect(200);
+    const { auth } = await signIn(h, 'op@gorse.example');
+    expect(operative.session.role).toBe('operative');
+    const res = await request(h.app).post(`/api/access-bookings/${booking.id}/inspections`).set(auth)
+      .send({ inspectedAt: '2027-02-26T14:30:00Z', inspectorName: 'Op', result: 'safe' }).expect(403);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body.code).toBe('forbidden');
+    expect(await h.dataSource.getRepository(ScaffoldInspection).count()).toBe(0);
+    expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'due', lastInspectedOn: null });
   });
 
   it('asks for the defects when the result is unsafe', async () => {
