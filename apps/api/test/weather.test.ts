@@ -1,6 +1,8 @@
+import { createECDH, randomBytes } from 'node:crypto';
 import request from 'supertest';
+import webpush from 'web-push';
 import { afterAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
-import type { AccessBookingDto, BoardDto, ForecastHour, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
+import type { AccessBookingDto, BoardDto, CrewDto, ForecastHour, PushMessageDto, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
 import { createWeatherFake } from '../src/fakes/weather-fake.js';
 import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
 import { HttpForecastProvider, HttpGeocoder, type ForecastProvider } from '../src/services/weather/forecast-provider.js';
@@ -19,6 +21,9 @@ class ScenarioProvider implements ForecastProvider {
 
 let h: Harness;
 let provider: ScenarioProvider;
+/** Every phone push sent, as the push service handed it over; the crews' phones subscribe to made-up endpoints. */
+let pushes: Array<{ endpoint: string; message: PushMessageDto }>;
+const vapid = { ...webpush.generateVAPIDKeys(), subject: 'mailto:office@heather.example' };
 let owner: SignedIn;
 let ids: Awaited<ReturnType<typeof populateFirm>>;
 
@@ -26,7 +31,14 @@ let ids: Awaited<ReturnType<typeof populateFirm>>;
 beforeEach(async () => {
   const now = { value: new Date('2027-03-24T06:00:00Z') };
   provider = new ScenarioProvider(now);
-  h = await createHarness({ forecastProvider: provider, geocoder: { locate: async () => ({ lat: 53.8, lon: -1.55 }) }, clock: () => now.value });
+  pushes = [];
+  h = await createHarness({
+    forecastProvider: provider, geocoder: { locate: async () => ({ lat: 53.8, lon: -1.55 }) }, clock: () => now.value, vapid,
+    pushSender: async (target, payload) => {
+      pushes.push({ endpoint: target.endpoint, message: JSON.parse(payload) as PushMessageDto });
+      return { statusCode: 201 };
+    },
+  });
   // The harness clock is this one, so a test can move time through h.now.
   h.now = now;
   await truncateAll(h.dataSource);
@@ -44,6 +56,27 @@ afterAll(async () => {
 });
 
 const refresh = () => request(h.app).post('/api/weather/refresh').set(owner.auth).send({}).expect(200);
+
+/** A crew lead added to the crew, with a phone subscribed to pushes at https://push.example/<email>. */
+async function leadWithPhone(email: string, crewId: string): Promise<SignedIn> {
+  const lead = await addPerson(h, owner, 'crew-lead', email);
+  const people = (await request(h.app).get('/api/people').set(owner.auth).expect(200)).body as Array<{ id: string; email: string }>;
+  const memberId = people.find((p) => p.email === email)!.id;
+  const crew = (await request(h.app).get(`/api/crews/${crewId}`).set(owner.auth).expect(200)).body as CrewDto;
+  await request(h.app).put(`/api/crews/${crewId}`).set(owner.auth)
+    .send({ name: crew.name, colour: crew.colour, leadMemberId: memberId, memberIds: [...crew.members.map((m) => m.memberId), memberId], version: crew.version }).expect(200);
+  const ecdh = createECDH('prime256v1');
+  ecdh.generateKeys();
+  await request(h.app).post('/api/push/subscriptions').set(lead.auth)
+    .send({ endpoint: `https://push.example/${email}`, keys: { p256dh: ecdh.getPublicKey().toString('base64url'), auth: randomBytes(16).toString('base64url') } }).expect(204);
+  return lead;
+}
+
+/** The phone pushes sent once every announcement started so far is out. */
+async function pushesSent(): Promise<Array<{ endpoint: string; message: PushMessageDto }>> {
+  await h.services.push.idle();
+  return pushes;
+}
 const board = async () => (await request(h.app).get('/api/board').query({ from: '2027-03-22', to: '2027-04-09' }).set(owner.auth).expect(200)).body as BoardDto;
 
 describe('forecasts on the board', () => {
@@ -190,8 +223,14 @@ describe('stand-downs and re-plans', () => {
     ].sort((a, b) => a.dedupe_key.localeCompare(b.dedupe_key)));
   });
 
-  it('lets only one of two simultaneous re-plans through', async () => {
+  it('lets only one of two simultaneous re-plans through, and tells the client, the supplier and the crew once', async () => {
+    await leadWithPhone('lead@heather.example', ids.crewId);
+    const supplier = await request(h.app).post('/api/suppliers').set(owner.auth).send({ name: 'Steady Tube', email: 'desk@steadytube.example', weeklyRates: { scaffold: 12_000 } }).expect(201);
+    const booking = await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [ids.jobId], accessType: 'scaffold', supplierId: supplier.body.id }).expect(201);
+    await request(h.app).post(`/api/access-bookings/${booking.body.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.body.version }).expect(200);
     const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    await pushesSent();
+    pushes.length = 0;
     const [a, b] = await Promise.all([
       request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }),
       request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push', version: hold.version }),
@@ -199,6 +238,59 @@ describe('stand-downs and re-plans', () => {
     expect([a.status, b.status].sort()).toEqual([200, 409]);
     const history = await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200);
     expect((history.body as Array<{ action: string }>).filter((e) => e.action === 'replanned')).toHaveLength(2); // one move + one hold line
+    expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(1);
+    expect(h.mailer.outbox.filter((m) => m.to === 'desk@steadytube.example')).toHaveLength(1);
+    expect((await h.dataSource.query(`SELECT count(*)::int AS n FROM access_change_request`))[0].n).toBe(1);
+    const sent = await pushesSent();
+    expect(sent.map((p) => p.endpoint)).toEqual(['https://push.example/lead@heather.example']);
+    expect(sent[0]!.message.body).toContain('from 2027-03-30 to 2027-03-31');
+  });
+
+  it('lets one of two re-plans of stand-downs on the same crew through at once; the other is refused until previewed again', async () => {
+    const nextJob = await followingJob();
+    await leadWithPhone('lead@heather.example', ids.crewId);
+    const first = (await raise().expect(201)).body as WeatherHoldDto;
+    const second = (await raise({ jobId: nextJob, dates: ['2027-03-31'], reason: 'rain' }).expect(201)).body as WeatherHoldDto;
+    const previewOf = async (hold: WeatherHoldDto) =>
+      (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    const commitOf = (hold: WeatherHoldDto, preview: ReplanPreviewDto) =>
+      request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version, planKey: preview.planKey });
+    const [p1, p2] = [await previewOf(first), await previewOf(second)];
+    await pushesSent();
+    pushes.length = 0;
+    const results = await Promise.all([commitOf(first, p1), commitOf(second, p2)]);
+    expect(results.map((r) => r.status).sort()).toEqual([200, 409]);
+    const winner = results.find((r) => r.status === 200)!.body as ReplanPreviewDto;
+    const loser = results.find((r) => r.status === 409)!;
+    expect(loser.body.code).toBe('conflict');
+    // One e-mail for the client of both jobs, one push per job the winner moved.
+    expect(h.mailer.outbox.filter((m) => m.to === 'farm@example.org')).toHaveLength(1);
+    expect((await pushesSent()).length).toBe(winner.moves.length);
+
+    const loserHold = winner.holdId === first.id ? second : first;
+    await commitOf(loserHold, await previewOf(loserHold)).expect(200);
+    // Either order ends the same: the stack on 30–31 March, the wall after it on 1–2 April.
+    // Source: gov.uk bank holidays, England and Wales 2027 (Good Friday 26 March, Easter Monday 29 March).
+    const view = await board();
+    expect(view.assignments.find((a) => a.jobId === ids.jobId)!.days).toEqual(['2027-03-30', '2027-03-31']);
+    expect(view.assignments.find((a) => a.jobId === nextJob)!.days).toEqual(['2027-04-01', '2027-04-02']);
+  });
+
+  it("ripples the crew's next job across the crew's leave", async () => {
+    await request(h.app).post('/api/time-off').set(owner.auth)
+      .send({ scope: 'crew', crewId: ids.crewId, label: 'First aid course', startDate: '2027-04-01', endDate: '2027-04-01' }).expect(201);
+    const nextJob = await followingJob();
+    expect((await board()).assignments.find((a) => a.jobId === nextJob)!.days).toEqual(['2027-03-31', '2027-04-02']);
+    const hold = (await raise().expect(201)).body as WeatherHoldDto;
+    const preview = (await request(h.app).post(`/api/weather-holds/${hold.id}/preview`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version }).expect(200)).body as ReplanPreviewDto;
+    // Source: gov.uk bank holidays, England and Wales 2027: Easter Monday is 29 March, so Friday 2 and Monday 5 April are
+    // working days; the crew is off on Thursday 1 April.
+    expect(preview.moves.map((m) => [m.jobId, m.toDays])).toEqual([
+      [ids.jobId, ['2027-03-30', '2027-03-31']],
+      [nextJob, ['2027-04-02', '2027-04-05']],
+    ]);
+    await request(h.app).post(`/api/weather-holds/${hold.id}/commit`).set(owner.auth).send({ mode: 'push-and-ripple', version: hold.version, planKey: preview.planKey }).expect(200);
+    expect((await board()).assignments.find((a) => a.jobId === nextJob)!.days).toEqual(['2027-04-02', '2027-04-05']);
   });
 
   it('previews exactly the booking changes the commit makes, a scaffold shared with a job on another crew included', async () => {
@@ -445,6 +537,66 @@ describe('a stand-down in the middle of a job', () => {
     expect((await placed(booked)).days).toEqual(['2027-06-02']);
     expect((await placed(underWay)).days).toEqual(['2027-05-25', '2027-05-26']);
     expect((await placed(clear)).days).toEqual(['2027-06-10']);
+  });
+
+  it("tells both crews' phones when the job moves from one to the other", async () => {
+    const ridge = await newCrew('Ridge crew');
+    await leadWithPhone('gable-lead@heather.example', ids.crewId);
+    await leadWithPhone('ridge-lead@heather.example', ridge);
+    const hold = await standDown();
+    await pushesSent();
+    pushes.length = 0;
+    const moved: string[][] = [];
+    const stop = h.services.events.subscribe((event) => {
+      if (event.type === 'assignment:moved') moved.push([...(event.crewIds ?? [])].sort());
+    });
+    await replan('commit', hold, { mode: 'move-crew', crewId: ridge, startDate: '2027-05-26' }).expect(200);
+    stop();
+    expect(moved).toEqual([[ids.crewId, ridge].sort()]);
+    const sent = await pushesSent();
+    expect(sent.map((p) => p.endpoint).sort()).toEqual(['https://push.example/gable-lead@heather.example', 'https://push.example/ridge-lead@heather.example']);
+    expect(sent.every((p) => p.message.body.includes('from 2027-05-26 to 2027-05-28'))).toBe(true);
+  });
+});
+
+describe('who may stand down and re-plan', () => {
+  const raiseAs = (who: SignedIn, jobId = ids.jobId) => request(h.app).post('/api/weather-holds').set(who.auth).send({ jobId, dates: ['2027-03-25'], reason: 'wind' });
+
+  it('refuses an operative a stand-down with 403 and stores nothing', async () => {
+    const operative = await addPerson(h, owner, 'operative', 'op@heather.example');
+    const people = (await request(h.app).get('/api/people').set(owner.auth).expect(200)).body as Array<{ id: string; email: string }>;
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth)
+      .send({ name: 'Gable crew', colour: '#445566', memberIds: [people.find((p) => p.email === 'op@heather.example')!.id] }).expect(200);
+    const before = await countRows(h.dataSource);
+    const res = await raiseAs(operative).expect(403);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toMatchObject({ code: 'forbidden', status: 403 });
+    expect(await countRows(h.dataSource)).toEqual(before);
+  });
+
+  it("lets a crew lead stand down their own crew's job from site, and answers 404 for another crew's", async () => {
+    const lead = await leadWithPhone('lead@heather.example', ids.crewId);
+    const porchCrew = (await request(h.app).post('/api/crews').set(owner.auth).send({ name: 'Porch crew', colour: '#553344' }).expect(201)).body.id as string;
+    const porch = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Porch roof', workTypes: ['roofing'], estimatedWorkingDays: 1 }).expect(201);
+    await request(h.app).post(`/api/jobs/${porch.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId: porch.body.id, crewId: porchCrew, startDate: '2027-03-25' }).expect(201);
+    const before = await countRows(h.dataSource);
+    const other = await raiseAs(lead, porch.body.id).expect(404);
+    expect(other.body.code).toBe('not-found');
+    expect(await countRows(h.dataSource)).toEqual(before);
+    expect((await raiseAs(lead).expect(201)).body).toMatchObject({ raisedFrom: 'crew', crewId: ids.crewId, status: 'open' });
+  });
+
+  it('refuses a crew lead the preview and the commit with 403 and moves nothing', async () => {
+    const lead = await leadWithPhone('lead@heather.example', ids.crewId);
+    const hold = (await raiseAs(lead).expect(201)).body as WeatherHoldDto;
+    for (const step of ['preview', 'commit']) {
+      const res = await request(h.app).post(`/api/weather-holds/${hold.id}/${step}`).set(lead.auth).send({ mode: 'push', version: hold.version }).expect(403);
+      expect(res.body.code).toBe('forbidden');
+    }
+    expect((await board()).assignments.find((a) => a.jobId === ids.jobId)!.days).toEqual(['2027-03-25', '2027-03-30']);
+    expect((await request(h.app).get('/api/weather-holds').set(owner.auth).expect(200)).body[0]).toMatchObject({ id: hold.id, status: 'open' });
   });
 });
 
