@@ -37,11 +37,11 @@ describe('accessWindowFor', () => {
 
 describe('hireCost', () => {
   it.each([
-    ['2026-03-08', 1], // Source: hire per week or part week, rounded up (common practice)
-    ['2026-03-09', 1], // Source: 7 days is one week
-    ['2026-03-10', 2], // Source: 8 days is a part second week, rounded up
-    ['2026-03-16', 2], // Source: 14 days is two weeks
-    ['2026-03-17', 3], // Source: 15 days starts a third week
+    ['2026-03-08', 1], // common practice, no source — hire is charged per week or part week, rounded up: 6 days is one week
+    ['2026-03-09', 1], // common practice, no source — part weeks rounded up: 7 days is one week
+    ['2026-03-10', 2], // common practice, no source — part weeks rounded up: 8 days starts a second week
+    ['2026-03-16', 2], // common practice, no source — part weeks rounded up: 14 days is two weeks
+    ['2026-03-17', 3], // common practice, no source — part weeks rounded up: 15 days starts a third week
   ])('erected 2 Mar 2026 and struck %s charges %d weeks', (strikeFrom, weeks) => {
     const c = hireCost({ erectBy: '2026-03-02', strikeFrom }, { weeklyRate: 12_000, minimumWeeks: 1 });
     expect(c.chargedWeeks).toBe(weeks);
