@@ -43,8 +43,8 @@ describe('useFormErrors', () => {
   it('returns parsed data and clears errors when the shared schema accepts the input', () => {
     const form = useFormErrors();
     form.errors.value = { name: 'old' };
-    const parsed = form.validate(clientInputSchema, { name: '  Orchard Lane Homes ', email: '' });
-    expect(parsed).toMatchObject({ name: 'Orchard Lane Homes', email: null });
+    const parsed = form.validate(clientInputSchema, { name: '  Orchard Lane Homes ', contacts: [{ name: 'Ruth Ambler', email: '' }] });
+    expect(parsed).toMatchObject({ name: 'Orchard Lane Homes', contacts: [{ name: 'Ruth Ambler', email: null }] });
     expect(form.errors.value).toEqual({});
   });
 
