@@ -1,5 +1,6 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import {
+  canQuoteJob,
   canTransition,
   clientLines,
   depositPence,
@@ -110,7 +111,7 @@ export class QuoteService {
       if (await manager.existsBy(Quote, { jobId: job.id })) {
         throw errors.alreadyExists(`${job.reference} already has a quote; revise that one instead.`);
       }
-      if (job.status === 'cancelled' || job.status === 'complete' || job.status === 'invoiced') {
+      if (!canQuoteJob(job.status)) {
         throw errors.illegalTransition(`${job.reference} is ${job.status}; only open jobs can be quoted.`);
       }
       const quote = await manager.save(scope.create(Quote, { jobId: job.id, reference: job.reference.replace(/^J/, 'Q'), status: 'draft' }));

@@ -3,6 +3,7 @@ import { priceJob, type PriceBreakdown, type PriceJobInput, type PriceLine } fro
 import type { AccessType } from '../terms/access.js';
 import { accessTypeSchema } from './access.js';
 import { idSchema, optionalText, requiredText } from './common.js';
+import type { JobStatus } from './jobs.js';
 
 // Fits a PostgreSQL integer column: £20 million is far beyond any job a small firm prices.
 const MAX_PENCE = 2_000_000_000;
@@ -166,6 +167,11 @@ export const quoteAcceptSchema = z.object({
 });
 export const quoteDeclineSchema = z.object({ reason: optionalText(1000) });
 export const quoteTokenParamsSchema = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'Not a quote link' }) });
+
+/** Only open jobs are quoted: one cancelled, done or invoiced has nothing left to price. */
+export function canQuoteJob(status: JobStatus): boolean {
+  return status !== 'cancelled' && status !== 'complete' && status !== 'invoiced';
+}
 
 export const quoteStatuses = ['draft', 'sent', 'accepted', 'declined', 'expired'] as const;
 export type QuoteStatus = (typeof quoteStatuses)[number];
