@@ -243,6 +243,48 @@ describe('quote life cycle', () => {
     expect(((await request(h.app).get(`/api/quotes/${quote.id}`).set(owner.auth)).body as QuoteDto).acceptance?.name).toBe('Mo Hartigan');
   });
 
+  it("refuses acceptance of a cancelled job's quote, saying why, changes nothing, and tells the office once", async () => {
+    await request(h.app).put('/api/firm').set(owner.auth).send({ name: 'Wrenfold Walling', email: 'office@wrenfold.example', phone: '01632 960 123' }).expect(200);
+    const { quote, token, jobId } = await sent();
+    await request(h.app).post(`/api/jobs/${jobId}/status`).set(owner.auth).send({ status: 'cancelled' }).expect(200);
+
+    const refused = await request(h.app).post(`/api/public/quotes/${token}/accept`).send({ name: 'Mo Hartigan', agree: true }).expect(409);
+    expect(refused.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(refused.body).toMatchObject({ code: 'illegal-transition', detail: 'This job has been cancelled, so the quote can no longer be accepted. Please contact Wrenfold Walling on 01632 960 123.' });
+    const office = () => h.mailer.outbox.filter((m) => m.to === 'office@wrenfold.example');
+    expect(office()).toHaveLength(1);
+    expect(office()[0]!.subject).toBe(`Mo Hartigan tried to accept quote ${quote.reference}, but ${quote.jobReference} is cancelled`);
+    expect(office()[0]!.text).toContain('the acceptance was refused and nothing was changed');
+
+    // Trying again is refused the same way, writes nothing and does not mail the office a second time.
+    const rows = await countRows(h.dataSource);
+    await request(h.app).post(`/api/public/quotes/${token}/accept`).send({ name: 'Mo Hartigan', agree: true }).expect(409);
+    expect(await countRows(h.dataSource)).toEqual(rows);
+    expect(office()).toHaveLength(1);
+    const after = (await request(h.app).get(`/api/quotes/${quote.id}`).set(owner.auth).expect(200)).body as QuoteDto;
+    expect(after).toMatchObject({ status: 'sent', acceptance: null, deposit: null, jobStatus: 'cancelled' });
+    expect((await request(h.app).get(`/api/public/quotes/${token}`).expect(200)).body.status).toBe('sent');
+  });
+
+  it('accepts the quote of a job already on the board without moving it back to booked, and tells the office where it is', async () => {
+    await request(h.app).put('/api/firm').set(owner.auth).send({ name: 'Wrenfold Walling', email: 'office@wrenfold.example' }).expect(200);
+    const { quote, token, jobId } = await sent();
+    await request(h.app).post(`/api/jobs/${jobId}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    const crew = await request(h.app).post('/api/crews').set(owner.auth).send({ name: 'Wall crew', colour: '#336699' }).expect(201);
+    await request(h.app).post('/api/assignments').set(owner.auth).send({ jobId, crewId: crew.body.id, startDate: '2027-03-15' }).expect(201);
+    const placedStatus = ((await request(h.app).get(`/api/jobs/${jobId}`).set(owner.auth).expect(200)).body as { status: string }).status;
+    expect(placedStatus).not.toBe('booked');
+
+    await request(h.app).post(`/api/public/quotes/${token}/accept`).send({ name: 'Mo Hartigan', agree: true }).expect(200);
+    const after = (await request(h.app).get(`/api/quotes/${quote.id}`).set(owner.auth).expect(200)).body as QuoteDto;
+    expect(after).toMatchObject({ status: 'accepted', jobStatus: placedStatus, acceptance: { name: 'Mo Hartigan' } });
+    const board = (await request(h.app).get('/api/board?from=2027-03-15&to=2027-03-21').set(owner.auth).expect(200)).body as BoardDto;
+    expect(board.trayJobIds).not.toContain(jobId);
+    const mail = h.mailer.lastTo('office@wrenfold.example')!;
+    expect(mail.subject).toBe(`Quote ${quote.reference} accepted by Mo Hartigan`);
+    expect(mail.text).toContain('The job is already on the board with Wall crew from 2027-03-15; it stays where it is.');
+  });
+
   it('lets the client decline with a reason, after which the link cannot accept', async () => {
     const { quote, token } = await sent();
     const declined = await request(h.app).post(`/api/public/quotes/${token}/decline`).send({ reason: 'Going with a neighbour' }).expect(200);

@@ -5,6 +5,7 @@ import {
   clientLines,
   depositPence,
   formatPence,
+  jobStatusLabels,
   priceQuote,
   quoteStatusLabels,
   travelPerDayPence,
@@ -17,7 +18,7 @@ import {
   type QuoteSummaryDto,
   type QuoteVersionDto,
 } from '@hodboard/shared';
-import { Assignment, AuditEvent, Client, Deposit, Firm, Job, Quote, QuoteVersion, Site } from '../entities/index.js';
+import { Assignment, AuditEvent, Client, Deposit, Firm, Job, Notification, Quote, QuoteVersion, Site } from '../entities/index.js';
 import { errors } from '../errors.js';
 import type { Clock } from '../lib/clock.js';
 import type { EventBus } from '../lib/event-bus.js';
@@ -234,19 +235,25 @@ export class QuoteService {
   /**
    * The client's yes. The link accepts once: the quote row is locked, so two clicks cannot both succeed.
    * Records who, when and from where, books the job (the board's tray picks it up) and opens the deposit.
+   * A job already on the board stays where it is. A cancelled job's quote is refused, and the office is told
+   * once per version that the client tried.
    */
   async accept(token: string, input: { name: string }, ip: string): Promise<QuoteAcceptedDto> {
-    const accepted = await this.dataSource.transaction(async (manager) => {
+    const outcome = await this.dataSource.transaction(async (manager) => {
       const quote = await this.byToken(manager, token, true);
       await this.expireIfDue(manager, quote);
       this.assertAnswerable(quote);
+      const job = await manager.findOneOrFail(Job, { where: { id: quote.jobId, firmId: quote.firmId }, lock: { mode: 'pessimistic_write' } });
+      const loaded = await this.load(manager, quote);
+      if (job.status === 'cancelled') {
+        await this.tellOfficeOfCancelledAcceptance(manager, loaded, input.name);
+        return { refused: loaded } as const;
+      }
       const now = this.clock();
       Object.assign(quote, { status: 'accepted', acceptedName: input.name, acceptedAt: now, acceptedIp: ip, tokenUsedAt: now });
       await manager.save(quote);
-      const loaded = await this.load(manager, quote);
-      const job = await manager.findOneOrFail(Job, { where: { id: quote.jobId }, lock: { mode: 'pessimistic_write' } });
-      const isPlaced = await manager.existsBy(Assignment, { jobId: job.id });
-      if (!isPlaced && job.status !== 'booked' && canTransition(job.status, 'booked')) {
+      const placed = await manager.findOne(Assignment, { where: { jobId: job.id, firmId: quote.firmId }, relations: { crew: true } });
+      if (!placed && job.status !== 'booked' && canTransition(job.status, 'booked')) {
         const before = { status: job.status };
         job.status = 'booked';
         await manager.save(job);
@@ -261,14 +268,26 @@ export class QuoteService {
         deposit = await manager.save(manager.create(Deposit, { firmId: quote.firmId, quoteId: quote.id, amountPence: loaded.current.depositPence, status: 'pending' }));
       }
       if (loaded.firm.email) {
+        const where = placed
+          ? `The job is already on the board with ${placed.crew.name} from ${placed.startDate}; it stays where it is.`
+          : job.status === 'booked'
+            ? "The job is booked and waiting in the board's tray."
+            : `The job is ${jobStatusLabels[job.status].toLowerCase()} and has been left as it is.`;
         await this.mailer.send({
           to: loaded.firm.email,
           subject: `Quote ${quote.reference} accepted by ${input.name}`,
-          text: `${input.name} accepted quote ${quote.reference} (version ${loaded.current.number}, ${formatPence(loaded.current.grossPence)}) for ${loaded.job.title} at ${formatAddress(loaded.site)}.\n\nThe job is booked and waiting in the board's tray.`,
+          text: `${input.name} accepted quote ${quote.reference} (version ${loaded.current.number}, ${formatPence(loaded.current.grossPence)}) for ${loaded.job.title} at ${formatAddress(loaded.site)}.\n\n${where}`,
         });
       }
       return { quote, job, deposit, clientEmail: quote.sentTo };
     });
+    if (outcome.refused) {
+      const { firm } = outcome.refused;
+      throw errors.illegalTransition(
+        `This job has been cancelled, so the quote can no longer be accepted. Please contact ${firm.name}${firm.phone ? ` on ${firm.phone}` : firm.email ? ` at ${firm.email}` : ''}.`,
+      );
+    }
+    const accepted = outcome;
     this.events.publish({ firmId: accepted.quote.firmId, type: 'quote:updated', id: accepted.quote.id, version: accepted.quote.version });
     this.events.publish({ firmId: accepted.quote.firmId, type: 'job:updated', id: accepted.job.id, version: accepted.job.version });
     let depositUrl: string | null = null;
@@ -307,6 +326,22 @@ export class QuoteService {
     if (deposit.status === 'paid') throw errors.conflict('The deposit has already been paid. Thank you.');
     const url = await this.payments.checkout({ deposit, quoteReference: quote.reference, clientEmail: quote.sentTo, returnUrl: `${this.options.appUrl}/q/${token}` });
     return { url };
+  }
+
+  /** One e-mail to the firm per quote version, however often the client tries the link. */
+  private async tellOfficeOfCancelledAcceptance(manager: EntityManager, loaded: Loaded, name: string): Promise<void> {
+    const { firm, quote, current, job } = loaded;
+    if (!firm.email) return;
+    const inserted = await manager.createQueryBuilder().insert().into(Notification)
+      .values({ firmId: quote.firmId, dedupeKey: `quote-accept-refused:${quote.id}:v${current.number}`, channel: 'email', recipient: firm.email })
+      .orIgnore().returning('id').execute();
+    if ((inserted.raw as unknown[]).length === 0) return;
+    await this.mailer.send({
+      to: firm.email,
+      subject: `${name} tried to accept quote ${quote.reference}, but ${job.reference} is cancelled`,
+      text: `${name} tried to accept quote ${quote.reference} (version ${current.number}, ${formatPence(current.grossPence)}) for ${job.title} at ${formatAddress(loaded.site)}.\n\n` +
+        `The job is cancelled, so the acceptance was refused and nothing was changed. The client was asked to contact you.`,
+    });
   }
 
   private assertAnswerable(quote: Quote): void {

@@ -218,7 +218,7 @@ export interface QuoteDto {
   jobId: string;
   jobReference: string;
   jobTitle: string;
-  jobStatus: string;
+  jobStatus: JobStatus;
   clientName: string;
   clientEmail: string | null;
   siteAddress: string;
