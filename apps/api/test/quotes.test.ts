@@ -1,5 +1,6 @@
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import Papa from 'papaparse';
 import request from 'supertest';
 import Stripe from 'stripe';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
@@ -656,6 +657,34 @@ describe('price list', () => {
     const res = await request(h.app).post('/api/materials/import').set(owner.auth).set('content-type', 'text/csv').send(bad).expect(400);
     expect(res.body.errors.map((e: { path: string }) => e.path)).toEqual(['rows.4.unit_price', 'rows.5.vatable', 'rows.5.name']);
     expect((await request(h.app).get('/api/materials').set(owner.auth).expect(200)).body).toEqual([]);
+  });
+
+  it('exports cells a spreadsheet would run as formulas with a leading quote, and reads them back as they were', async () => {
+    const risky = [
+      { name: '=HYPERLINK("http://bad.example","Price")', unit: 'brick', unitPricePence: 85, supplier: '@SUM(1+1)' },
+      { name: '+44 ties', unit: '-pack', unitPricePence: 1_200, supplier: 'Kilnside Supplies' },
+      { name: 'Sharp sand = washed', unit: 'tonne', unitPricePence: 4_650, supplier: null },
+    ];
+    for (const item of risky) await request(h.app).post('/api/materials').set(owner.auth).send(item).expect(201);
+    const exported = (await request(h.app).get('/api/materials/export').set(owner.auth).expect(200)).text as string;
+    const cells = Papa.parse<string[]>(exported, { skipEmptyLines: true }).data.slice(1).map((row) => row.slice(0, 5));
+    // Source: OWASP ASVS requirement 1.2.10 (secondary copy, asvs.emil.hemdal.se/1.2.10): a field starting with
+    // = + - @ or a tab is escaped with a single quote when exported to CSV.
+    expect(cells).toEqual([
+      ['\'+44 ties', '\'-pack', '12.00', 'yes', 'Kilnside Supplies'],
+      ['\'=HYPERLINK("http://bad.example","Price")', 'brick', '0.85', 'yes', '\'@SUM(1+1)'],
+      ['Sharp sand = washed', 'tonne', '46.50', 'yes', ''],
+    ]);
+    expect(cells.flat().filter((cell) => /^[=+\-@]/.test(cell))).toEqual([]);
+
+    const again = await request(h.app).post('/api/materials/import').set(owner.auth).set('content-type', 'text/csv').send(exported).expect(200);
+    expect(again.body).toEqual({ created: 0, updated: 3 });
+    const list = (await request(h.app).get('/api/materials').set(owner.auth).expect(200)).body as Array<{ name: string; unit: string; supplier: string | null }>;
+    expect(list.map((m) => [m.name, m.unit, m.supplier])).toEqual([
+      ['+44 ties', '-pack', 'Kilnside Supplies'],
+      ['=HYPERLINK("http://bad.example","Price")', 'brick', '@SUM(1+1)'],
+      ['Sharp sand = washed', 'tonne', null],
+    ]);
   });
 
   it('refuses a file without the price column', async () => {

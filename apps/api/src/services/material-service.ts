@@ -120,9 +120,16 @@ export class MaterialService {
         m.supplier ?? '',
         m.updatedAt.slice(0, 10),
       ]),
-    });
+    }, { escapeFormulae: FORMULA_START });
   }
 }
+
+/**
+ * A cell a spreadsheet would run as a formula (=, +, - or @ first, or a tab or carriage return that can hide one):
+ * the export writes it with a leading ' so it opens as text, and the import takes that ' off again.
+ */
+const FORMULA_START = /^[=+\-@\t\r]/;
+const DEFUSED = /^'[=+\-@\t\r]/;
 
 const YES = new Set(['yes', 'y', 'true', '1']);
 const NO = new Set(['no', 'n', 'false', '0']);
@@ -133,6 +140,7 @@ export function parseMaterialCsv(csv: string): { rows: MaterialValues[]; columns
     header: true,
     skipEmptyLines: 'greedy',
     transformHeader: (h) => h.trim().toLowerCase().replace(/\s+/g, '_'),
+    transform: (value) => (DEFUSED.test(value) ? value.slice(1) : value),
   });
   const problems: ProblemFieldError[] = [];
   const headers = parsed.meta.fields ?? [];
