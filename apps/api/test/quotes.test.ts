@@ -466,6 +466,37 @@ describe('links without an account', () => {
     expectRateLimited(await request(app).get(`/api/public/quotes/${token}`));
   });
 
+  it('refuses a tampered link on every route it opens, changes nothing, and the real link still works', async () => {
+    const { quote, token } = await sent();
+    const flip = (c: string) => (c === 'A' ? 'B' : 'A');
+    const tampered = [
+      `${token.slice(0, -1)}${flip(token.at(-1)!)}`,
+      `${flip(token[0]!)}${token.slice(1)}`,
+      `${token.slice(0, 20)}${flip(token[20]!)}${token.slice(21)}`,
+      token.slice(0, -1),
+      `${token}A`,
+    ];
+    const before = await countRows(h.dataSource);
+    for (const link of tampered) {
+      expect(link).not.toBe(token);
+      const answers = [
+        await request(h.app).get(`/api/public/quotes/${link}`),
+        await request(h.app).get(`/api/public/quotes/${link}/pdf`),
+        await request(h.app).post(`/api/public/quotes/${link}/accept`).send({ name: 'Mo Hartigan', agree: true }),
+        await request(h.app).post(`/api/public/quotes/${link}/decline`).send({ reason: 'Forged' }),
+        await request(h.app).post(`/api/public/quotes/${link}/deposit`),
+      ];
+      for (const res of answers) {
+        expect(res.status, `${res.req.method} ${res.req.path}`).toBe(401);
+        expect(res.body).toMatchObject({ code: 'token-invalid' });
+        expect(JSON.stringify(res.body)).not.toMatch(/Wrenfold|Hartigan|Q\d{4}/);
+      }
+    }
+    expect(await countRows(h.dataSource)).toEqual(before);
+    expect(((await request(h.app).get(`/api/quotes/${quote.id}`).set(owner.auth).expect(200)).body as QuoteDto)).toMatchObject({ status: 'sent', acceptance: null, declinedAt: null });
+    await request(h.app).post(`/api/public/quotes/${token}/accept`).send({ name: 'Mo Hartigan', agree: true }).expect(200);
+  });
+
   it("shows through firm A's link only firm A's quote, and never anything of firm B", async () => {
     const a = await sent();
     const other = await signUpFirm(h, 'Elsewhere Builders', 'owner@elsewhere.example');
