@@ -480,14 +480,14 @@ describe('links without an account', () => {
     for (const link of tampered) {
       expect(link).not.toBe(token);
       const answers = [
-        await request(h.app).get(`/api/public/quotes/${link}`),
-        await request(h.app).get(`/api/public/quotes/${link}/pdf`),
-        await request(h.app).post(`/api/public/quotes/${link}/accept`).send({ name: 'Mo Hartigan', agree: true }),
-        await request(h.app).post(`/api/public/quotes/${link}/decline`).send({ reason: 'Forged' }),
-        await request(h.app).post(`/api/public/quotes/${link}/deposit`),
-      ];
-      for (const res of answers) {
-        expect(res.status, `${res.req.method} ${res.req.path}`).toBe(401);
+        ['view', await request(h.app).get(`/api/public/quotes/${link}`)],
+        ['pdf', await request(h.app).get(`/api/public/quotes/${link}/pdf`)],
+        ['accept', await request(h.app).post(`/api/public/quotes/${link}/accept`).send({ name: 'Mo Hartigan', agree: true })],
+        ['decline', await request(h.app).post(`/api/public/quotes/${link}/decline`).send({ reason: 'Forged' })],
+        ['deposit', await request(h.app).post(`/api/public/quotes/${link}/deposit`)],
+      ] as const;
+      for (const [what, res] of answers) {
+        expect(res.status, `${what} with ${link}`).toBe(401);
         expect(res.body).toMatchObject({ code: 'token-invalid' });
         expect(JSON.stringify(res.body)).not.toMatch(/Wrenfold|Hartigan|Q\d{4}/);
       }
