@@ -81,6 +81,37 @@ describe('the reasons behind a verdict', () => {
   });
 });
 
+describe('look-ahead periods past the forecast', () => {
+  it('notes the frost period the forecast does not reach yet, without lowering a calm day', async () => {
+    provider.scenario = 'calm-week';
+    // A feed that ends at midnight starting Mon 29 March: past the 48 h after Thu 25 March's working window, short of its six frost days.
+    const feed = provider.hourly.bind(provider);
+    provider.hourly = async (lat, lon, days) => (await feed(lat, lon, days)).filter((hour) => hour.time < '2027-03-29T00:00:00.000Z');
+    await refresh();
+    const day = (await board()).weather.find((d) => d.date === '2027-03-25')!;
+    // Source: NHBC Standards 2023 §3.2.5, frost protection for up to six days; Hodboard rule: the part past the day and the next 48 h is a note
+    expect(day.verdict).toBe('go');
+    expect(day.reasons.filter((r) => r.ruleId.startsWith('forecast.reach.'))).toEqual([]);
+    expect(day.notes).toEqual([{
+      activities: ['bricklaying'],
+      ruleId: 'forecast.reach.frost-protection',
+      message: expect.stringMatching(/^The forecast reaches .* of the 6 days the frost-protection rule looks ahead \(none yet for 2027-03-29 00:00 UTC to 2027-03-31 \d\d:\d\d UTC\); check it again nearer the day\.$/),
+      source: expect.stringMatching(/^Hodboard:/),
+      uncovered: [{ from: '2027-03-29T00:00:00.000Z', to: expect.stringMatching(/^2027-03-31T/) }],
+    }]);
+  });
+
+  it('still gives a caution when the forecast ends within the 48 h after the working day', async () => {
+    provider.scenario = 'calm-week';
+    await refresh();
+    // The feed runs to 06:00 on Thu 1 April, before the 48 h after Tue 30 March's working window are out (Hodboard rule).
+    const day = (await board()).weather.find((d) => d.date === '2027-03-30')!;
+    expect(day.verdict).toBe('caution');
+    expect(day.reasons).toContainEqual(expect.objectContaining({ activity: 'bricklaying', ruleId: 'forecast.reach.frost-protection', verdict: 'caution', unit: 'h', at: null }));
+    expect(day.notes).toContainEqual(expect.objectContaining({ ruleId: 'forecast.reach.frost-protection', activities: ['bricklaying'] }));
+  });
+});
+
 describe('stood-down days on the board', () => {
   const raise = (dates: string[], reason = 'wind') =>
     request(h.app).post('/api/weather-holds').set(owner.auth).send({ jobId: ids.jobId, dates, reason }).expect(201);

@@ -12,7 +12,7 @@ const reason = (overrides: Partial<DayWeatherReasonDto>): DayWeatherReasonDto =>
   source: 'NASC TG20 guidance', at: '2027-03-25T11:00:00.000Z', threshold: 17.9, unit: 'm/s', observed: 20.5, beaufort: null, ...overrides,
 });
 const day = (reasons: DayWeatherReasonDto[], overrides: Partial<DayWeatherDto> = {}): DayWeatherDto => ({
-  assignmentId: 'a1', jobId: 'j1', date: '2027-03-25', verdict: 'stop', reasons, advice: [],
+  assignmentId: 'a1', jobId: 'j1', date: '2027-03-25', verdict: 'stop', reasons, notes: [], advice: [],
   forecastFetchedAt: '2027-03-24T06:00:00.000Z', isStale: false, ...overrides,
 });
 const figures = (d: DayWeatherDto) =>

@@ -9,7 +9,7 @@ import WeatherStaleNotice from './WeatherStaleNotice.vue';
 import WeatherVerdictBadge from './WeatherVerdictBadge.vue';
 
 const day = (overrides: Partial<DayWeatherDto> = {}): DayWeatherDto => ({
-  assignmentId: 'a1', jobId: 'j1', date: '2027-03-25', verdict: 'caution', reasons: [], advice: [],
+  assignmentId: 'a1', jobId: 'j1', date: '2027-03-25', verdict: 'caution', reasons: [], notes: [], advice: [],
   forecastFetchedAt: '2027-03-24T06:00:00.000Z', isStale: false, ...overrides,
 });
 const global = { plugins: [PrimeVue] };

@@ -21,7 +21,7 @@ const jobB = 'cccccccc-0000-4000-8000-000000000002';
 
 function day(jobId: string, date: string, verdict: DayWeatherDto['verdict']): DayWeatherDto {
   return {
-    assignmentId: `as-${jobId}`, jobId, date, verdict, advice: [], forecastFetchedAt: '2027-03-01T06:00:00.000Z', isStale: false,
+    assignmentId: `as-${jobId}`, jobId, date, verdict, notes: [], advice: [], forecastFetchedAt: '2027-03-01T06:00:00.000Z', isStale: false,
     reasons: verdict === 'go' ? [] : [{ activity: 'work-at-height', ruleId: 'wind.scaffold-use.balance', verdict, message: 'Gusts to 21 m/s', source: 'test', at: '2027-03-02T11:00:00.000Z', threshold: 17, unit: 'm/s', observed: 21, beaufort: { force: 6, name: 'Strong breeze' } }],
   };
 }

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { activities } from './activities.js';
 import { assessDay, assessDayInputSchema, worseVerdict } from './assess-day.js';
 import { daylight, workingWindow } from './daylight.js';
-import { DAY, FULL_HOURS, hourlyForecast, inWindow, WINDOW } from './fixtures/forecast-builder.js';
+import { calmMildHour, DAY, DAY_AND_48H, FULL_HOURS, hourlyForecast, inWindow, TO_HORIZON, WINDOW } from './fixtures/forecast-builder.js';
 import { resolveRuleSettings } from './settings.js';
 
 describe('assessDay', () => {
@@ -12,10 +12,11 @@ describe('assessDay', () => {
     const day = assessDay({ activities: ['bricklaying', 'mewp'], forecast: hourlyForecast(DAY, FULL_HOURS), window: WINDOW });
     expect(day.verdict).toBe('go');
     expect(day.windowHours).toBe(9);
-    expect(day.activities.map((a) => [a.activity, a.verdict, a.usableHours, a.reasons.length])).toEqual([
-      ['bricklaying', 'go', 9, 0],
-      ['mewp', 'go', 9, 0],
+    expect(day.activities.map((a) => [a.activity, a.verdict, a.usableHours, a.reasons.length, a.notes.length])).toEqual([
+      ['bricklaying', 'go', 9, 0, 0],
+      ['mewp', 'go', 9, 0, 0],
     ]);
+    expect(day.notes).toEqual([]);
     expect(day.activities[0]?.mortar).toBe('cement');
   });
 
@@ -88,6 +89,58 @@ describe('assessDay', () => {
         expect(rank[day.verdict]).toBe(worstActivity);
       }),
       { numRuns: 300 },
+    );
+  });
+
+  it('rolls the activities\' notes up to the day, each once, without lowering any verdict', () => {
+    // Source: Hodboard rule — with the standard forecast (the day and the next 48 h) the look-ahead periods past it are notes;
+    // NHBC Standards 2023 §3.2.5 six days of frost protection for mortar, ACI 306R 72 h for concrete (period from memory)
+    const day = assessDay({ activities: ['bricklaying', 'pointing', 'concrete', 'mewp'], forecast: hourlyForecast(DAY, DAY_AND_48H), window: WINDOW });
+    expect(day.verdict).toBe('go');
+    expect(day.activities.map((a) => [a.activity, a.verdict, a.reasons.length, a.notes.map((n) => n.ruleId)])).toEqual([
+      ['bricklaying', 'go', 0, ['forecast.reach.frost-protection']],
+      ['pointing', 'go', 0, ['forecast.reach.frost-protection']],
+      ['concrete', 'go', 0, ['forecast.reach.concrete-protection']],
+      ['mewp', 'go', 0, []],
+    ]);
+    expect(day.notes.map((n) => [n.ruleId, n.activities])).toEqual([
+      ['forecast.reach.frost-protection', ['bricklaying', 'pointing']],
+      ['forecast.reach.concrete-protection', ['concrete']],
+    ]);
+    expect(day.notes[0]).toMatchObject({ message: day.activities[0]?.notes[0]?.message, uncovered: day.activities[0]?.notes[0]?.uncovered });
+  });
+
+  it('gives the same verdicts and reasons for any forecast that reaches the day and the next 48 h, however much longer', () => {
+    // Source: Hodboard rule — the part of a look-ahead period past the standard input only ever adds a note. The weather past the
+    // horizon is the calm mild hour, which no default rule reacts to (settings.test.ts)
+    const hour = fc.record({
+      tempC: fc.double({ min: -8, max: 36, noNaN: true }),
+      windMeanMs: fc.double({ min: 0, max: 20, noNaN: true }),
+      windGustMs: fc.double({ min: 0, max: 30, noNaN: true }),
+      precipMm: fc.double({ min: 0, max: 5, noNaN: true }),
+      precipProbability: fc.double({ min: 0, max: 1, noNaN: true }),
+    });
+    fc.assert(
+      fc.property(
+        fc.array(hour, { minLength: TO_HORIZON, maxLength: TO_HORIZON }), fc.integer({ min: TO_HORIZON, max: FULL_HOURS }),
+        fc.subarray([...activities], { minLength: 1 }), fc.constantFrom<'uk' | 'us'>('uk', 'us'),
+        (hours, length, planned, practice) => {
+          const full = hourlyForecast(DAY, FULL_HOURS, (h) => hours[h] ?? calmMildHour);
+          const settings = resolveRuleSettings({ practice });
+          const long = assessDay({ activities: planned, forecast: full, window: WINDOW, settings });
+          const cut = assessDay({ activities: planned, forecast: full.slice(0, length), window: WINDOW, settings });
+          expect(cut.verdict).toBe(long.verdict);
+          // The frost caution's text says how far ahead it looked, so the texts may differ; all else matches.
+          const judged = (d: typeof long) => d.activities.map((a) => [a.verdict, a.usableHours, a.reasons.map(({ message: _, ...r }) => r)]);
+          expect(judged(cut)).toEqual(judged(long));
+          expect(long.notes).toEqual([]);
+          const mortar = practice === 'uk' && planned.some((a) => a === 'bricklaying' || a === 'pointing' || a === 'rendering');
+          // Frost protection runs to hour 8 + 144 of the forecast, ACI 306R to hour 8 + 72.
+          const noted = (mortar && length < 8 + 144) || (planned.includes('concrete') && length < 8 + 72);
+          expect(cut.notes.length > 0).toBe(noted);
+        },
+      ),
+      { numRuns: 200 },
     );
   });
 

@@ -2,7 +2,9 @@ import { z } from 'zod';
 import { activities, heightActivities, mortarActivities, mortarKinds, type Activity, type MortarKind } from './activities.js';
 import { checkConcreteColdWeather, checkConcreteFreezing, checkUkConcreteDischarge } from './concrete-rules.js';
 import { parseInstant, type IsoInstant } from './dates.js';
-import { blockedBuffer, buildContext, fmt, forecastHourSchema, type ForecastHour, type HourContext, type RuleReason, type Verdict } from './forecast.js';
+import {
+  blockedBuffer, buildContext, fmt, forecastHourSchema, type AssessmentNote, type ForecastHour, type HourContext, type RuleReason, type Verdict,
+} from './forecast.js';
 import {
   checkFrostProtection,
   checkUkMortarCold,
@@ -20,7 +22,7 @@ export type PlannedActivity = Activity | { activity: Activity; mortar?: MortarKi
 
 export interface AssessDayInput {
   activities: readonly PlannedActivity[];
-  /** Hourly forecast for the day and the next 48 h, in time order. */
+  /** Hourly forecast for the day and the next 48 h (`FORECAST_HOURS_AFTER_DAY`), in time order. */
   forecast: readonly ForecastHour[];
   window: { start: IsoInstant; end: IsoInstant };
   /** A resolved settings object (see `resolveRuleSettings`); defaults when omitted. */
@@ -35,8 +37,15 @@ export interface ActivityAssessment {
   /** Window hours free of any stop rule and covered by the forecast. */
   usableHours: number;
   reasons: RuleReason[];
+  /** What the office should know that does not change the verdict: look-ahead periods past the forecast's horizon. */
+  notes: AssessmentNote[];
   /** Standing cautions that apply whatever the weather. */
   advice: readonly string[];
+}
+
+/** A note on the day, once however many of its activities gave it. */
+export interface DayNote extends AssessmentNote {
+  activities: Activity[];
 }
 
 export interface DayAssessment {
@@ -44,6 +53,8 @@ export interface DayAssessment {
   verdict: Verdict;
   windowHours: number;
   activities: ActivityAssessment[];
+  /** The activities' notes, each rule's note once (activities with the same rule and period give the same one). */
+  notes: DayNote[];
 }
 
 const plannedActivitySchema = z.union([
@@ -111,22 +122,23 @@ function assessActivity(ctx: HourContext, activity: Activity, mortar: MortarKind
   const s = ctx.settings;
   blocked.fill(0, ctx.i0, ctx.i1);
   const reasons: RuleReason[] = [];
+  const notes: AssessmentNote[] = [];
   for (const w of windLimits(activity, s)) checkWind(ctx, w, blocked, reasons);
   if (mortarActivities.has(activity)) {
     const kind = mortar ?? 'cement';
     if (s.practice === 'uk') {
       checkUkMortarCold(ctx, kind, blocked, reasons);
-      checkFrostProtection(ctx, reasons);
+      checkFrostProtection(ctx, reasons, notes);
       checkUkMortarHeat(ctx, reasons);
     } else {
-      checkUsMortarCold(ctx, reasons);
+      checkUsMortarCold(ctx, reasons, notes);
       checkUsMortarHeat(ctx, reasons);
     }
     checkRainOnFreshWork(ctx, blocked, reasons);
   } else if (activity === 'concrete') {
     checkConcreteFreezing(ctx, blocked, reasons);
     if (s.practice === 'uk') checkUkConcreteDischarge(ctx, reasons);
-    checkConcreteColdWeather(ctx, reasons);
+    checkConcreteColdWeather(ctx, reasons, notes);
     checkRainOnFreshWork(ctx, blocked, reasons);
   } else if (activity === 'groundworks') {
     checkHeavyRain(ctx, reasons);
@@ -170,7 +182,7 @@ function assessActivity(ctx: HourContext, activity: Activity, mortar: MortarKind
       source: SOURCES.usableHours,
     });
   }
-  const result: ActivityAssessment = { activity, verdict, usableHours: usable, reasons, advice: adviceFor(activity) };
+  const result: ActivityAssessment = { activity, verdict, usableHours: usable, reasons, notes, advice: adviceFor(activity) };
   if (mortarActivities.has(activity)) result.mortar = mortar ?? 'cement';
   return result;
 }
@@ -198,5 +210,17 @@ export function assessDay(input: AssessDayInput): DayAssessment {
     verdict = worseVerdict(verdict, a.verdict);
     out.push(a);
   }
-  return { verdict, windowHours: ctx.windowHours, activities: out };
+  return { verdict, windowHours: ctx.windowHours, activities: out, notes: dayNotes(out) };
+}
+
+function dayNotes(assessed: readonly ActivityAssessment[]): DayNote[] {
+  const notes: DayNote[] = [];
+  for (const a of assessed) {
+    for (const n of a.notes) {
+      const same = notes.find((d) => d.ruleId === n.ruleId && d.message === n.message);
+      if (same) same.activities.push(a.activity);
+      else notes.push({ ruleId: n.ruleId, message: n.message, source: n.source, uncovered: n.uncovered, activities: [a.activity] });
+    }
+  }
+  return notes;
 }

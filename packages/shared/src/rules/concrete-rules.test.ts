@@ -1,13 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { assessDay, type DayAssessment } from './assess-day.js';
-import { DAY, FULL_HOURS, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
+import { DAY, DAY_AND_48H, FULL_HOURS, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
 import { defaultRuleSettings, resolveRuleSettings, type RuleSettings } from './settings.js';
+import { SOURCES } from './sources.js';
 import { fToC } from './units.js';
 
 function pour(at: (h: number) => Partial<HourValues>, settings: RuleSettings = defaultRuleSettings, hours = FULL_HOURS): DayAssessment {
   return assessDay({ activities: ['concrete'], forecast: hourlyForecast(DAY, hours, at), window: WINDOW, settings });
 }
 const find = (d: DayAssessment, id: string) => d.activities[0]?.reasons.find((r) => r.ruleId === id);
+const note = (d: DayAssessment, id: string) => d.activities[0]?.notes.find((n) => n.ruleId === id);
 
 describe('concrete reason wording', () => {
   it.each([
@@ -51,15 +53,31 @@ describe('concrete in cold weather', () => {
     else expect(r).toMatchObject({ verdict: 'caution', observed: 1, at: '2026-03-05T07:00:00.000Z' });
   });
 
-  it('says when the forecast ends before the 72 h protection period does, and which hours it leaves out', () => {
-    // Source: ACI 306R (concrete.org); 72 h protection period from memory. A 72 h forecast from midnight stops 64 h after the 08:00 start (Hodboard rule: say so)
-    const day = pour(() => ({}), defaultRuleSettings, 72);
+  it('notes the end of the 72 h protection period past the day and the next 48 h, without lowering the verdict', () => {
+    // Source: ACI 306R (concrete.org); 72 h protection period from memory. The standard 72 h forecast from midnight stops 64 h after the 08:00 start,
+    // past the horizon 48 h after the 17:00 end of the window (Hodboard rule: a note, not a caution)
+    const day = pour(() => ({}), defaultRuleSettings, DAY_AND_48H);
     expect(find(day, 'cold.concrete.aci306')).toBeUndefined();
+    expect(find(day, 'forecast.reach.concrete-protection')).toBeUndefined();
+    expect(day.verdict).toBe('go');
+    expect(note(day, 'forecast.reach.concrete-protection')).toEqual({
+      ruleId: 'forecast.reach.concrete-protection',
+      message: 'The forecast reaches 64 h of the 72 h the concrete protection rule (ACI 306R) looks ahead (none yet for 2026-03-05 00:00 UTC to 2026-03-05 08:00 UTC); check it again nearer the day.',
+      source: SOURCES.forecastBeyond,
+      uncovered: [{ from: '2026-03-05T00:00:00.000Z', to: '2026-03-05T08:00:00.000Z' }],
+    });
+    expect(note(pour(() => ({})), 'forecast.reach.concrete-protection')).toBeUndefined();
+  });
+
+  it('gives a caution when the forecast ends within the day and the next 48 h, and notes the rest of the period', () => {
+    // Source: ACI 306R (concrete.org); 72 h period from memory. 60 h from midnight end at 12:00 on 4 March, 5 h before the horizon (Hodboard rule)
+    const day = pour(() => ({}), defaultRuleSettings, 60);
     const r = find(day, 'forecast.reach.concrete-protection');
-    expect(r).toMatchObject({ verdict: 'caution', threshold: 72, observed: 64, uncovered: [{ from: '2026-03-05T00:00:00.000Z', to: '2026-03-05T08:00:00.000Z' }] });
-    expect(r?.message).toMatch(/64–72 h after the working window starts \(2026-03-05 00:00 UTC to 2026-03-05 08:00 UTC\)/);
+    expect(r).toMatchObject({ verdict: 'caution', threshold: 57, observed: 52, source: SOURCES.forecastReach, uncovered: [{ from: '2026-03-04T12:00:00.000Z', to: '2026-03-04T17:00:00.000Z' }] });
+    expect(r?.message).toMatch(/52–57 h after the working window starts \(2026-03-04 12:00 UTC to 2026-03-04 17:00 UTC\)/);
+    expect(r?.message).toMatch(/check with the site’s competent person\.$/);
+    expect(note(day, 'forecast.reach.concrete-protection')?.uncovered).toEqual([{ from: '2026-03-04T17:00:00.000Z', to: '2026-03-05T08:00:00.000Z' }]);
     expect(day.verdict).toBe('caution');
-    expect(find(pour(() => ({})), 'forecast.reach.concrete-protection')).toBeUndefined();
   });
 
   it('judges ACI 306R cold weather under US practice too, without the UK discharge rule', () => {

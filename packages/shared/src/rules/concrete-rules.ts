@@ -1,4 +1,6 @@
-import { coldestAhead, fmt, HOUR, lookAheadCover, lookAheadReason, tempReason, windowExtreme, type HourContext, type RuleReason } from './forecast.js';
+import {
+  coldestAhead, fmt, HOUR, lookAheadCover, reportLookAheadCover, tempReason, windowExtreme, type AssessmentNote, type HourContext, type RuleReason,
+} from './forecast.js';
 import { SOURCES } from './sources.js';
 import { cToF } from './units.js';
 
@@ -31,7 +33,7 @@ export function checkUkConcreteDischarge(ctx: HourContext, out: RuleReason[]): v
 }
 
 /** ACI 306R: cold weather if the air is at or expected below 40 °F at any time in the protection period. */
-export function checkConcreteColdWeather(ctx: HourContext, out: RuleReason[]): void {
+export function checkConcreteColdWeather(ctx: HourContext, out: RuleReason[], notes: AssessmentNote[]): void {
   const s = ctx.settings;
   const until = ctx.windowStart + s.concreteProtectionHours * HOUR;
   const cold = coldestAhead(ctx, until, s.concreteColdAtOrBelowC);
@@ -46,9 +48,13 @@ export function checkConcreteColdWeather(ctx: HourContext, out: RuleReason[]): v
   }
   const cover = lookAheadCover(ctx, until);
   if (cover) {
-    out.push(lookAheadReason(
-      ctx, cover, 'forecast.reach.concrete-protection', 'concrete protection period from the start of work',
-      'Cold weather then (air at or below 40 °F / 4.4 °C) is not ruled out: check the forecast again before then and keep blankets or an enclosure to hand.', DEFER, SOURCES.forecastReach,
-    ));
+    reportLookAheadCover(ctx, cover, {
+      ruleId: 'forecast.reach.concrete-protection',
+      period: 'concrete protection period from the start of work',
+      rule: 'concrete protection rule (ACI 306R)',
+      inDays: false,
+      risk: 'Cold weather then (air at or below 40 °F / 4.4 °C) is not ruled out: check the forecast again before then and keep blankets or an enclosure to hand.',
+      defer: DEFER,
+    }, out, notes);
   }
 }

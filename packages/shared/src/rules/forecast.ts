@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { parseInstant, type IsoInstant } from './dates.js';
 import type { RuleSettings } from './settings.js';
+import { SOURCES } from './sources.js';
 
 /** One forecast hour at the site; it stands for the hour that starts at `time`. */
 export interface ForecastHour {
@@ -46,7 +47,7 @@ export interface RuleReason {
    * describes mean wind, so a gust or a height-scaled figure never sets it; the message quotes the gust.
    */
   beaufort?: { force: number; name: string };
-  /** On a look-ahead reason about the forecast's reach: the spans of the period no forecast hour covers. */
+  /** On a look-ahead reason about the forecast's reach: the spans of the period, before `forecastHorizon`, no forecast hour covers. */
   uncovered?: ForecastGap[];
 }
 
@@ -56,7 +57,32 @@ export interface ForecastGap {
   to: IsoInstant;
 }
 
+/**
+ * Something the office should know that does not change the verdict: the part of a look-ahead rule's
+ * period that lies past the forecast the rules are given (`uncovered`, after `forecastHorizon`).
+ */
+export interface AssessmentNote {
+  /** The look-ahead rule's id, the same as the caution it gives for hours missing before the horizon. */
+  ruleId: string;
+  message: string;
+  source: string;
+  uncovered: ForecastGap[];
+}
+
 export const HOUR = 3_600_000;
+
+/**
+ * The forecast the rules are written for: the assessed day and the next 48 h (`AssessDayInput.forecast`).
+ * Look-ahead rules count it from the end of the working window, the latest instant the day is known to
+ * reach without the site's time zone: hours missing before then are a gap in the data (a caution), the
+ * part of their period after it is beyond what such a forecast reaches (a note).
+ */
+export const FORECAST_HOURS_AFTER_DAY = 48;
+
+/** Epoch ms where the standard input ends for this assessment: `FORECAST_HOURS_AFTER_DAY` after the window. */
+export function forecastHorizon(ctx: HourContext): number {
+  return ctx.windowEnd + FORECAST_HOURS_AFTER_DAY * HOUR;
+}
 
 /** The forecast read once per assessment; every rule family works from this. */
 export interface HourContext {
@@ -226,34 +252,87 @@ export function lookAheadCover(ctx: HourContext, untilMs: number): LookAheadCove
 }
 
 const utcText = (iso: IsoInstant): string => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+const utcMs = (ms: number): string => utcText(new Date(ms).toISOString());
 const hoursText = (h: number): string => String(Math.round(h * 100) / 100);
+const daysText = (h: number): string => {
+  const days = Math.floor(h / 24 + 1e-9);
+  const rest = Math.round((h - days * 24) * 100) / 100;
+  const d = days === 0 ? '' : `${days} day${days === 1 ? '' : 's'}`;
+  return rest === 0 ? d || '0 h' : `${d}${d ? ' ' : ''}${hoursText(rest)} h`;
+};
+
+/** What a look-ahead rule says about the part of its period the forecast does not cover. */
+export interface LookAheadSpec {
+  ruleId: string;
+  /** For the caution text, e.g. "frost-protection period (6 days) from the start of work". */
+  period: string;
+  /** For the note, e.g. "frost-protection rule". */
+  rule: string;
+  /** Count the period in days in the note ("2 days 16 h of the 6 days"), not hours. */
+  inDays: boolean;
+  /** For the caution: what missing hours could hide, and what to do. */
+  risk: string;
+  defer: string;
+}
 
 /**
- * A caution that a look-ahead rule could not see its whole period: the forecast ends (or has
- * holes) before the period does, so the rule was checked on the hours it has and no others.
+ * Splits the spans a look-ahead rule could not see at the standard input's horizon (`forecastHorizon`).
+ * Hours missing before it are a gap in the data the rules are given: a `forecast.reach.*` caution.
+ * The part of the period after it is one no forecast of the standard length reaches: a note that does
+ * not change the verdict, since the forecast is read again as it extends.
  */
-export function lookAheadReason(
-  ctx: HourContext, cover: LookAheadCover, ruleId: string, period: string, risk: string, defer: string, source: string,
-): RuleReason {
-  const uncovered: ForecastGap[] = [];
-  const spans: string[] = [];
+export function reportLookAheadCover(
+  ctx: HourContext, cover: LookAheadCover, spec: LookAheadSpec, out: RuleReason[], notes: AssessmentNote[],
+): void {
+  const horizon = forecastHorizon(ctx);
+  const start = ctx.windowStart;
+  const inside: ForecastGap[] = [];
+  const beyond: ForecastGap[] = [];
+  const insideSpans: string[] = [];
+  const beyondSpans: string[] = [];
+  let missingInside = 0;
   for (const [a, b] of cover.gaps) {
-    const g = { from: new Date(a).toISOString(), to: new Date(b).toISOString() };
-    uncovered.push(g);
-    spans.push(`${hoursText((a - ctx.windowStart) / HOUR)}–${hoursText((b - ctx.windowStart) / HOUR)} h after the working window starts (${utcText(g.from)} to ${utcText(g.to)})`);
+    if (a < horizon) {
+      const e = Math.min(b, horizon);
+      const g = { from: new Date(a).toISOString(), to: new Date(e).toISOString() };
+      inside.push(g);
+      missingInside += e - a;
+      insideSpans.push(`${hoursText((a - start) / HOUR)}–${hoursText((e - start) / HOUR)} h after the working window starts (${utcText(g.from)} to ${utcText(g.to)})`);
+    }
+    if (b > horizon) {
+      const s = Math.max(a, horizon);
+      beyond.push({ from: new Date(s).toISOString(), to: new Date(b).toISOString() });
+      beyondSpans.push(`${utcMs(s)} to ${utcMs(b)}`);
+    }
   }
-  return {
-    ruleId,
-    verdict: 'caution',
-    threshold: cover.periodHours,
-    unit: 'h',
-    observed: cover.coveredHours,
-    at: null,
-    hours: 0,
-    message: `The forecast covers only ${hoursText(cover.coveredHours)} h of the ${hoursText(cover.periodHours)} h ${period}: no forecast for ${spans.join('; ')}. ${risk} ${defer}`,
-    source,
-    uncovered,
-  };
+  if (inside.length > 0) {
+    const insideHours = (Math.min(horizon, start + cover.periodHours * HOUR) - start) / HOUR;
+    const covered = Math.round((insideHours - missingInside / HOUR) * 100) / 100;
+    const part = insideHours < cover.periodHours
+      ? `the first ${hoursText(insideHours)} h of the ${hoursText(cover.periodHours)} h ${spec.period}, as far as the forecast should reach (${FORECAST_HOURS_AFTER_DAY} h after the working window ends)`
+      : `the ${hoursText(cover.periodHours)} h ${spec.period}`;
+    out.push({
+      ruleId: spec.ruleId,
+      verdict: 'caution',
+      threshold: insideHours,
+      unit: 'h',
+      observed: covered,
+      at: null,
+      hours: 0,
+      message: `The forecast covers only ${hoursText(covered)} h of ${part}: no forecast for ${insideSpans.join('; ')}. ${spec.risk} ${spec.defer}`,
+      source: SOURCES.forecastReach,
+      uncovered: inside,
+    });
+  }
+  if (beyond.length > 0) {
+    const amount = spec.inDays ? daysText : (h: number) => `${hoursText(h)} h`;
+    notes.push({
+      ruleId: spec.ruleId,
+      message: `The forecast reaches ${amount(cover.coveredHours)} of the ${amount(cover.periodHours)} the ${spec.rule} looks ahead (none yet for ${beyondSpans.join('; ')}); check it again nearer the day.`,
+      source: SOURCES.forecastBeyond,
+      uncovered: beyond,
+    });
+  }
 }
 
 /** A temperature reason at the hour `extreme` names. */

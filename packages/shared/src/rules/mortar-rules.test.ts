@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import type { Activity, MortarKind } from './activities.js';
 import { assessDay, type DayAssessment } from './assess-day.js';
-import { DAY, FULL_HOURS, hourlyForecast, inWindow, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
-import type { RuleReason } from './forecast.js';
+import { DAY, DAY_AND_48H, FULL_HOURS, hourlyForecast, inWindow, TO_HORIZON, WINDOW, type HourValues } from './fixtures/forecast-builder.js';
+import type { AssessmentNote, RuleReason } from './forecast.js';
 import { canLayInCold, usColdBandFor } from './mortar-rules.js';
 import { defaultRuleSettings, resolveRuleSettings, type RuleSettings } from './settings.js';
+import { SOURCES } from './sources.js';
 import { fToC, mphToMs } from './units.js';
 
 const ONE_HOUR = { start: '2026-03-02T08:00:00Z', end: '2026-03-02T09:00:00Z' };
@@ -21,6 +22,7 @@ function dayWith(activity: Activity, at: (h: number) => Partial<HourValues>, set
 }
 
 const find = (d: DayAssessment, id: string): RuleReason | undefined => d.activities[0]?.reasons.find((r) => r.ruleId === id);
+const note = (d: DayAssessment, id: string): AssessmentNote | undefined => d.activities[0]?.notes.find((n) => n.ruleId === id);
 
 describe('UK cold weather for mortar', () => {
   it.each([
@@ -58,7 +60,7 @@ describe('UK cold weather for mortar', () => {
     expect(canLayInCold(2, 1, 3, 1)).toBe(true);
     expect(canLayInCold(2, -1, 3, 1)).toBe(false);
     const forecast = hourlyForecast(DAY, 10, (h) => (h === 8 ? { tempC: 1 } : h === 9 ? { tempC: 2 } : {}));
-    // Frost look-ahead off: ten hours of forecast cannot reach six days, and that caution is not the point here.
+    // Frost look-ahead off: ten hours of forecast leave most of the next 48 h out, and that caution is not the point here.
     const settings = resolveRuleSettings({ frostProtectionDays: 0 });
     const day = assessDay({ activities: ['bricklaying'], forecast, window: { start: '2026-03-02T09:00:00Z', end: '2026-03-02T10:00:00Z' }, settings });
     expect(find(day, 'cold.mortar.cement')).toBeUndefined();
@@ -88,49 +90,110 @@ describe('UK cold weather for mortar', () => {
     expect(find(beyond, 'cold.mortar.frost-protection')).toBeUndefined();
   });
 
-  it('says when the forecast ends before the six days are out, and which hours it leaves out', () => {
+  it('notes the part of the six days past the day and the next 48 h, without lowering the verdict', () => {
     // Source: NHBC Standards 2023 §3.2.5, frost protection for up to six days (144 h from the 08:00 start);
-    // a 72 h forecast from midnight reaches only 64 h of them (Hodboard rule: look-ahead rules say what they could not see)
-    const day = dayWith('bricklaying', () => ({}), defaultRuleSettings, 72);
+    // the standard 72 h forecast from midnight reaches 64 h of them. Hodboard rule: the part past the day and the next 48 h is a note, not a caution
+    const day = dayWith('bricklaying', () => ({}), defaultRuleSettings, DAY_AND_48H);
     expect(find(day, 'cold.mortar.frost-protection')).toBeUndefined();
-    const r = find(day, 'forecast.reach.frost-protection');
-    expect(r).toMatchObject({
-      verdict: 'caution',
-      threshold: 144,
-      observed: 64,
-      unit: 'h',
-      at: null,
+    expect(find(day, 'forecast.reach.frost-protection')).toBeUndefined();
+    expect(day.activities[0]?.reasons).toEqual([]);
+    expect(day.verdict).toBe('go');
+    const n = note(day, 'forecast.reach.frost-protection');
+    expect(n).toEqual({
+      ruleId: 'forecast.reach.frost-protection',
+      message: 'The forecast reaches 2 days 16 h of the 6 days the frost-protection rule looks ahead (none yet for 2026-03-05 00:00 UTC to 2026-03-08 08:00 UTC); check it again nearer the day.',
+      source: SOURCES.forecastBeyond,
       uncovered: [{ from: '2026-03-05T00:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }],
     });
-    expect(r?.message).toMatch(/covers only 64 h of the 144 h frost-protection period/);
-    expect(r?.message).toMatch(/64–144 h after the working window starts \(2026-03-05 00:00 UTC to 2026-03-08 08:00 UTC\)/);
-    expect(day.verdict).toBe('caution');
+  });
+
+  it.each([
+    // Source: Hodboard rule — the standard input is the day and the next 48 h, counted from the 17:00 end of the window (2026-03-04 17:00 UTC); NHBC Standards 2023 §3.2.5, six days
+    [TO_HORIZON, 'go', null, '2026-03-04T17:00:00.000Z'],
+    // Source: Hodboard rule — one hour short of the horizon (16:00–17:00 on 4 March) is missing data, a caution; NHBC Standards 2023 §3.2.5, six days
+    [TO_HORIZON - 1, 'caution', { from: '2026-03-04T16:00:00.000Z', to: '2026-03-04T17:00:00.000Z' }, '2026-03-04T17:00:00.000Z'],
+  ] as const)('with %d forecast hours from midnight the frost look-ahead is %s', (hours, verdict, gap, noteFrom) => {
+    const day = dayWith('pointing', () => ({}), defaultRuleSettings, hours);
+    expect(day.verdict).toBe(verdict);
+    const r = find(day, 'forecast.reach.frost-protection');
+    if (gap === null) expect(r).toBeUndefined();
+    else {
+      // 57 h from the 08:00 start to the horizon, of which 56 h are forecast.
+      expect(r).toMatchObject({ verdict: 'caution', threshold: 57, observed: 56, unit: 'h', at: null, source: SOURCES.forecastReach, uncovered: [gap] });
+      expect(r?.message).toMatch(/covers only 56 h of the first 57 h of the 144 h frost-protection period \(6 days\) from the start of work, as far as the forecast should reach \(48 h after the working window ends\)/);
+      expect(r?.message).toMatch(/56–57 h after the working window starts \(2026-03-04 16:00 UTC to 2026-03-04 17:00 UTC\)/);
+    }
+    expect(note(day, 'forecast.reach.frost-protection')?.uncovered).toEqual([{ from: noteFrom, to: '2026-03-08T08:00:00.000Z' }]);
   });
 
   it.each([
     [8 + 144, 'none'], // Source: NHBC Standards 2023 §3.2.5, six days; the forecast's last hour ends exactly 144 h after the 08:00 start
-    [8 + 143, 'caution'], // Source: NHBC Standards 2023 §3.2.5, six days; one hour short (143–144 h) is reported (Hodboard rule)
-  ])('with %d forecast hours from midnight the six-day frost period is %s short', (hours, expected) => {
-    const r = find(dayWith('pointing', () => ({}), defaultRuleSettings, hours), 'forecast.reach.frost-protection');
-    if (expected === 'none') expect(r).toBeUndefined();
-    else expect(r).toMatchObject({ observed: 143, uncovered: [{ from: '2026-03-08T07:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }] });
+    [8 + 143, 'note'], // Source: NHBC Standards 2023 §3.2.5, six days; one hour short (143–144 h) is noted (Hodboard rule)
+  ])('with %d forecast hours from midnight the end of the six-day frost period gives %s', (hours, expected) => {
+    const day = dayWith('pointing', () => ({}), defaultRuleSettings, hours);
+    expect(find(day, 'forecast.reach.frost-protection')).toBeUndefined();
+    expect(day.verdict).toBe('go');
+    const n = note(day, 'forecast.reach.frost-protection');
+    if (expected === 'none') expect(n).toBeUndefined();
+    else {
+      expect(n?.uncovered).toEqual([{ from: '2026-03-08T07:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }]);
+      expect(n?.message).toMatch(/reaches 5 days 23 h of the 6 days/);
+    }
   });
 
-  it('reports hours missing inside the frost period as well as at its end', () => {
-    // Source: NHBC Standards 2023 §3.2.5, six days of frost protection; Hodboard rule: missing hours are reported, never passed over
+  it('gives a caution for hours missing within the day and the next 48 h', () => {
+    // Source: NHBC Standards 2023 §3.2.5, six days of frost protection; Hodboard rule: missing hours within the standard input are reported, never passed over
     const forecast = hourlyForecast(DAY, FULL_HOURS).filter((_, h) => h !== 40 && h !== 41);
     const day = assessDay({ activities: ['bricklaying'], forecast, window: WINDOW });
     expect(find(day, 'forecast.reach.frost-protection')).toMatchObject({
-      observed: 142,
+      verdict: 'caution',
+      threshold: 57,
+      observed: 55,
       uncovered: [{ from: '2026-03-03T16:00:00.000Z', to: '2026-03-03T18:00:00.000Z' }],
     });
+    expect(day.activities[0]?.notes).toEqual([]);
+    expect(day.verdict).toBe('caution');
   });
 
-  it('still warns of frost it can see when the forecast ends early', () => {
-    // Source: NHBC Standards 2023 §3.2.5 — a forecast at or below 0 °C in the period; the part not forecast is reported beside it (Hodboard rule)
-    const day = dayWith('bricklaying', (h) => (h === 50 ? { tempC: -1 } : {}), defaultRuleSettings, 72);
+  it('only notes hours missing after the day and the next 48 h', () => {
+    // Source: NHBC Standards 2023 §3.2.5, six days of frost protection; Hodboard rule: past the standard input a gap is a note
+    const forecast = hourlyForecast(DAY, FULL_HOURS).filter((_, h) => h !== 100 && h !== 101);
+    const day = assessDay({ activities: ['bricklaying'], forecast, window: WINDOW });
+    expect(find(day, 'forecast.reach.frost-protection')).toBeUndefined();
+    expect(day.verdict).toBe('go');
+    const n = note(day, 'forecast.reach.frost-protection');
+    expect(n?.uncovered).toEqual([{ from: '2026-03-06T04:00:00.000Z', to: '2026-03-06T06:00:00.000Z' }]);
+    expect(n?.message).toMatch(/reaches 5 days 22 h of the 6 days .*\(none yet for 2026-03-06 04:00 UTC to 2026-03-06 06:00 UTC\)/);
+  });
+
+  it('splits a gap that runs across the horizon into a caution before it and a note after it', () => {
+    // Source: NHBC Standards 2023 §3.2.5, six days; Hodboard rule: the standard input ends 48 h after the window (2026-03-04 17:00 UTC)
+    const day = dayWith('bricklaying', () => ({}), defaultRuleSettings, 60);
+    expect(find(day, 'forecast.reach.frost-protection')).toMatchObject({
+      threshold: 57,
+      observed: 52,
+      uncovered: [{ from: '2026-03-04T12:00:00.000Z', to: '2026-03-04T17:00:00.000Z' }],
+    });
+    expect(note(day, 'forecast.reach.frost-protection')).toMatchObject({
+      uncovered: [{ from: '2026-03-04T17:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }],
+      message: expect.stringMatching(/^The forecast reaches 2 days 4 h of the 6 days/),
+    });
+    expect(day.verdict).toBe('caution');
+  });
+
+  it('still warns of frost it can see when the standard forecast ends before the six days do', () => {
+    // Source: NHBC Standards 2023 §3.2.5 — a forecast at or below 0 °C in the period; the part not forecast is noted beside it (Hodboard rule)
+    const day = dayWith('bricklaying', (h) => (h === 50 ? { tempC: -1 } : {}), defaultRuleSettings, DAY_AND_48H);
     expect(find(day, 'cold.mortar.frost-protection')?.verdict).toBe('caution');
-    expect(find(day, 'forecast.reach.frost-protection')?.observed).toBe(64);
+    expect(find(day, 'forecast.reach.frost-protection')).toBeUndefined();
+    expect(note(day, 'forecast.reach.frost-protection')?.uncovered).toEqual([{ from: '2026-03-05T00:00:00.000Z', to: '2026-03-08T08:00:00.000Z' }]);
+  });
+
+  it('looks ahead only as the firm sets it: no frost look-ahead, no note', () => {
+    // Source: NHBC Standards 2023 §3.2.5 "up to six days"; a firm setting of 0 days turns the look-ahead off (Hodboard rule)
+    const day = dayWith('bricklaying', () => ({}), resolveRuleSettings({ frostProtectionDays: 0 }), DAY_AND_48H);
+    expect(day.activities[0]?.notes).toEqual([]);
+    expect(day.notes).toEqual([]);
   });
 
   it.each([
@@ -160,9 +223,9 @@ describe('mortar reason wording', () => {
     expect(r?.message).toMatch(defer);
   });
 
-  it('says so too when the forecast does not reach the frost period', () => {
+  it('says so too when the forecast misses hours of the frost period within the day and the next 48 h', () => {
     // Source: NHBC Standards 2023 §3.2.5, six days; Hodboard rule for the look-ahead that runs past the forecast
-    expect(find(dayWith('pointing', () => ({}), defaultRuleSettings, 72), 'forecast.reach.frost-protection')?.message).toMatch(defer);
+    expect(find(dayWith('pointing', () => ({}), defaultRuleSettings, 60), 'forecast.reach.frost-protection')?.message).toMatch(defer);
   });
 
   it('gives the same deferral in the rain rule and the standing advice for fresh work', () => {
@@ -231,7 +294,16 @@ describe('US cold weather for mortar (TMS 602 / ACI 530.1)', () => {
     // Source: TMS 602 protection by mean daily temperature (secondary copy); a 20 h forecast from midnight covers 12 h of the 24 h from 08:00 (Hodboard rule)
     const r = find(dayWith('bricklaying', () => ({}), us, 20), 'forecast.reach.us-protection');
     expect(r).toMatchObject({ verdict: 'caution', threshold: 24, observed: 12, uncovered: [{ from: '2026-03-02T20:00:00.000Z', to: '2026-03-03T08:00:00.000Z' }] });
+    expect(r?.message).toMatch(/covers only 12 h of the 24 h from the start of work that set the protection/);
     expect(find(dayWith('bricklaying', () => ({}), us), 'forecast.reach.us-protection')).toBeUndefined();
+  });
+
+  it('needs no more than the standard forecast for the 24 h that set the protection, so it never only notes them', () => {
+    // Source: TMS 602 protection by mean daily temperature (secondary copy); the 24 h from 08:00 end inside the day and the next 48 h (Hodboard rule)
+    const day = dayWith('bricklaying', () => ({}), us, DAY_AND_48H);
+    expect(find(day, 'forecast.reach.us-protection')).toBeUndefined();
+    expect(day.activities[0]?.notes).toEqual([]);
+    expect(day.verdict).toBe('go');
   });
 
   it.each([

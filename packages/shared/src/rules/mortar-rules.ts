@@ -1,7 +1,7 @@
 import type { MortarKind } from './activities.js';
 import {
-  coldestAhead, fmt, HOUR, indexAtOrAfter, lookAheadCover, lookAheadReason, tempAt, tempReason, timeAt, windowExtreme,
-  type ForecastHour, type HourContext, type RuleReason,
+  coldestAhead, fmt, HOUR, indexAtOrAfter, lookAheadCover, reportLookAheadCover, tempAt, tempReason, timeAt, windowExtreme,
+  type AssessmentNote, type ForecastHour, type HourContext, type LookAheadSpec, type RuleReason,
 } from './forecast.js';
 import { SOURCES } from './sources.js';
 import { cToF, msToMph } from './units.js';
@@ -48,7 +48,7 @@ export function checkUkMortarCold(ctx: HourContext, mortar: MortarKind, blocked:
 }
 
 /** Fresh mortar needs frost protection for days after laying: look ahead through the forecast. */
-export function checkFrostProtection(ctx: HourContext, out: RuleReason[]): void {
+export function checkFrostProtection(ctx: HourContext, out: RuleReason[], notes: AssessmentNote[]): void {
   const s = ctx.settings;
   if (s.frostProtectionDays <= 0) return;
   const until = ctx.windowStart + s.frostProtectionDays * 24 * HOUR;
@@ -65,10 +65,14 @@ export function checkFrostProtection(ctx: HourContext, out: RuleReason[]): void 
   }
   const cover = lookAheadCover(ctx, until);
   if (cover) {
-    out.push(lookAheadReason(
-      ctx, cover, 'forecast.reach.frost-protection', `frost-protection period (${s.frostProtectionDays} days) from the start of work`,
-      'Frost then is not ruled out: check the forecast again before then and keep frost protection for the new work to hand.', DEFER, SOURCES.forecastReach,
-    ));
+    reportLookAheadCover(ctx, cover, {
+      ruleId: 'forecast.reach.frost-protection',
+      period: `frost-protection period (${s.frostProtectionDays} days) from the start of work`,
+      rule: 'frost-protection rule',
+      inDays: true,
+      risk: 'Frost then is not ruled out: check the forecast again before then and keep frost protection for the new work to hand.',
+      defer: DEFER,
+    }, out, notes);
   }
 }
 
@@ -121,7 +125,16 @@ function usProtection(meanF: number): string {
   return 'cover completely with a weather-resistive membrane for 24 h (BIA Technical Note 1: 48 h)';
 }
 
-export function checkUsMortarCold(ctx: HourContext, out: RuleReason[]): void {
+const US_PROTECTION_REACH: LookAheadSpec = {
+  ruleId: 'forecast.reach.us-protection',
+  period: 'from the start of work that set the protection by mean daily temperature',
+  rule: 'US mortar protection rule',
+  inDays: false,
+  risk: 'The mean daily temperature is worked out from the hours forecast only: check the forecast again and be ready to protect the new work.',
+  defer: DEFER,
+};
+
+export function checkUsMortarCold(ctx: HourContext, out: RuleReason[], notes: AssessmentNote[]): void {
   const s = ctx.settings;
   const f = ctx.forecast;
   const cold = windowExtreme(ctx, (t) => t < s.usColdBelowC);
@@ -147,12 +160,7 @@ export function checkUsMortarCold(ctx: HourContext, out: RuleReason[]): void {
     if (t < lo) lo = t;
   }
   const cover = lookAheadCover(ctx, until);
-  if (cover) {
-    out.push(lookAheadReason(
-      ctx, cover, 'forecast.reach.us-protection', 'from the start of work that set the protection by mean daily temperature',
-      'The mean daily temperature is worked out from the hours forecast only: check the forecast again and be ready to protect the new work.', DEFER, SOURCES.forecastReach,
-    ));
-  }
+  if (cover) reportLookAheadCover(ctx, cover, US_PROTECTION_REACH, out, notes);
   if (lo === Infinity) return;
   const mean = (hi + lo) / 2;
   if (mean >= s.usColdBelowC) return;

@@ -25,7 +25,8 @@ export const SOURCES = {
   rainHeavy: 'Met Office: heavy rain above 4 mm/h (from memory); stop rule common practice, no source',
   usableHours: 'Common practice, no source: a day with fewer usable hours than this is not worth starting',
   forecast: 'Hodboard: every working hour needs a forecast hour',
-  forecastReach: 'Hodboard: a look-ahead rule is checked on the hours forecast only, and says which part of its period the forecast does not reach',
+  forecastReach: 'Hodboard: a look-ahead rule is checked on the hours forecast only; hours missing within the day and the next 48 h are a caution',
+  forecastBeyond: 'Hodboard: a look-ahead period past the day and the next 48 h is noted, not a caution; forecasts are read again as they extend',
 } as const;
 
 export type SourceKey = keyof typeof SOURCES;

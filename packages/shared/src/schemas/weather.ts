@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { idSchema, isoDateSchema, optionalText } from './common.js';
 import { holdReasons, type HoldReason } from '../terms/weather.js';
-import type { ReasonUnit } from '../rules/forecast.js';
+import type { ForecastGap, ReasonUnit } from '../rules/forecast.js';
 import type { AccessState, AccessType } from '../terms/access.js';
 
 export const holdReasonSchema = z.enum(holdReasons);
@@ -130,6 +130,19 @@ export interface DayWeatherReasonDto {
   beaufort: { force: number; name: string } | null;
 }
 
+/**
+ * Something to know about a job-day that does not change its verdict: the part of a look-ahead rule's period
+ * past the day and the next 48 h, which the forecast does not reach yet. Once per rule, with the activities that gave it.
+ */
+export interface DayWeatherNoteDto {
+  activities: string[];
+  ruleId: string;
+  message: string;
+  source: string;
+  /** The spans of the period with no forecast yet, [from, to). */
+  uncovered: ForecastGap[];
+}
+
 export interface DayWeatherDto {
   assignmentId: string;
   jobId: string;
@@ -137,6 +150,7 @@ export interface DayWeatherDto {
   verdict: 'go' | 'caution' | 'stop';
   /** Short reasons for the board's panel; the job page has the full assessment. */
   reasons: DayWeatherReasonDto[];
+  notes: DayWeatherNoteDto[];
   advice: string[];
   forecastFetchedAt: string | null;
   isStale: boolean;

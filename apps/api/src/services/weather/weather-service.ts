@@ -119,6 +119,9 @@ export class WeatherService {
               threshold: r.threshold, unit: r.unit, observed: r.observed, beaufort: r.beaufort ?? null,
             })),
           ),
+          notes: assessment.notes.map((n) => ({
+            activities: [...n.activities], ruleId: n.ruleId, message: n.message, source: n.source, uncovered: n.uncovered.map((g) => ({ from: g.from, to: g.to })),
+          })),
           advice: [...new Set(assessment.activities.flatMap((a) => [...a.advice]))],
           forecastFetchedAt: forecast.fetchedAt?.toISOString() ?? null,
           isStale: forecast.isStale,
