@@ -40,13 +40,37 @@ describe('WeatherReasonList', () => {
     const text = figures(day([
       reason({ ruleId: 'day.usable-hours', threshold: 4, unit: 'h', observed: 2.5, at: null }),
       reason({ ruleId: 'forecast.missing', verdict: 'caution', threshold: 0, unit: 'h', observed: 3, at: null }),
-      reason({ ruleId: 'forecast.reach.frost-protection', verdict: 'caution', threshold: 168, unit: 'h', observed: 121.5, at: null }),
+      reason({ ruleId: 'forecast.reach.frost-protection', verdict: 'caution', threshold: 57, unit: 'h', observed: 52.5, at: null }),
     ]));
     expect(text).toEqual([
       'Needs 4 h usable · forecast leaves 2.5 h',
       'No forecast for 3 h of the working window',
-      'Forecast covers 121.5 h of the 168 h looked ahead',
+      'Forecast covers 52.5 h of the 57 h it should reach',
     ]);
+  });
+
+  it('shows a look-ahead past the forecast as a muted note, once, naming its activities, and not as a reason', () => {
+    const message = 'The forecast reaches 2 days 16 h of the 6 days the frost-protection rule looks ahead (none yet for 2027-03-28 00:00 UTC to 2027-03-31 08:00 UTC); check it again nearer the day.';
+    const d = day([], {
+      verdict: 'go',
+      notes: [{
+        activities: ['bricklaying', 'pointing'], ruleId: 'forecast.reach.frost-protection', message, source: 'Hodboard rule',
+        uncovered: [{ from: '2027-03-28T00:00:00.000Z', to: '2027-03-31T08:00:00.000Z' }],
+      }],
+    });
+    const wrapper = mount(WeatherReasonList, { props: { day: d }, global: { plugins: [PrimeVue] } });
+    const notes = wrapper.findAll('[data-testid="reason-note"]');
+    expect(notes).toHaveLength(1);
+    expect(notes[0]!.find('i.pi-info-circle').exists()).toBe(true);
+    expect(notes[0]!.text()).toBe(`Note, not counted in the verdict: ${message} (Bricklaying, Pointing)`);
+    expect(wrapper.findAll('[data-rule]')).toHaveLength(0);
+    expect(wrapper.text()).toContain('No forecast rule is near its limit');
+    expect(wrapper.get('.head').text()).toContain('Fine to work');
+  });
+
+  it('shows no note line when there is none', () => {
+    const wrapper = mount(WeatherReasonList, { props: { day: day([reason({})]) }, global: { plugins: [PrimeVue] } });
+    expect(wrapper.find('[data-testid="reason-note"]').exists()).toBe(false);
   });
 
   it('keeps the rule, the message and the source beside the figures', () => {
