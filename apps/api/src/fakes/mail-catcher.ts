@@ -210,6 +210,13 @@ const PAGE_STYLE = `
   dl { display: grid; grid-template-columns: max-content 1fr; gap: .2rem 1rem; }
   dt { font-weight: 600; }
   .empty { color: #5c6770; }
+  td { overflow-wrap: anywhere; }
+  @media (max-width: 40rem) {
+    thead { display: none; }
+    table, tbody, tr, td { display: block; }
+    tr { border-bottom: 1px solid #e2ded6; padding: .35rem 0; }
+    td { border: 0; padding: .1rem .6rem; }
+  }
 `;
 
 function layout(title: string, body: string): string {
