@@ -1,6 +1,6 @@
 export type WallThickness = 'half-brick' | 'one-brick';
 
-/** UK standard brick, work size (BS EN 771-1 common size) and joint, mm. */
+/** UK standard brick, work size and joint, mm (BS EN 771 size as a secondary copy of the standard gives it; not read in the original). */
 export const standardBrick = { lengthMm: 215, widthMm: 102.5, heightMm: 65, jointMm: 10 } as const;
 
 /** Bricks per m² of wall face, stretcher bond, 10 mm joints (1 / (0.225 × 0.075) = 59.3, rounded up in trade tables). */
