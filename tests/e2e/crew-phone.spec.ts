@@ -65,6 +65,8 @@ test.describe('the crew phone', () => {
     await expect(card.getByText(/Uploading|Waiting to send/)).toHaveCount(0, { timeout: 15_000 });
     const thumbs = card.getByRole('region', { name: 'Photos' }).locator('img[src*="/api/public/photos/"]');
     await expect(thumbs).toHaveCount(before + 2);
+    // Thumbnails load lazily, so bring them on screen as a lead scrolling to them would.
+    await thumbs.last().scrollIntoViewIfNeeded();
     await expect.poll(() => thumbs.evaluateAll((imgs) => imgs.filter((img) => (img as HTMLImageElement).naturalWidth > 0).length)).toBe(before + 2);
     await page.unroute('**/api/photos');
 
