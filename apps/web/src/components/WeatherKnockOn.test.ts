@@ -52,4 +52,26 @@ describe('WeatherKnockOn', () => {
       expect.stringMatching(/the request follows the job, up Thu 25 Mar, down Thu 1 Apr\. The hire has no dates yet, so its cost is not worked out\.$/),
     ]);
   });
+
+  it('sums up several following jobs in one line, with the list behind it, and counts those pushed past a promise', () => {
+    const wrapper = mount(WeatherKnockOn, {
+      props: {
+        knockOn: knockOn({
+          laterJobs: [
+            { jobId: 'j2', reference: 'J0043', finishNow: '2027-04-01', finishAfterPush: '2027-04-02', targetFinish: '2027-04-05', passesTargetFinish: false },
+            { jobId: 'j3', reference: 'J0044', finishNow: '2027-04-06', finishAfterPush: '2027-04-07', targetFinish: '2027-04-06', passesTargetFinish: true },
+          ],
+          access: [],
+          extraHirePence: 0,
+        }),
+      },
+    });
+    const summary = wrapper.find('[data-kind="later-summary"] summary');
+    expect(summary.text()).toBe('2 later jobs of this crew follow on, the last finishing Wed 7 Apr instead of Tue 6 Apr; 1 past a finish promised to the client.');
+    expect(summary.classes()).toContain('is-warn');
+    expect(wrapper.findAll('[data-kind="later-summary"] li').map((li) => li.text())).toEqual([
+      'J0043 follows on, finishing Fri 2 Apr instead of Thu 1 Apr: still within the finish promised, Mon 5 Apr.',
+      'J0044 follows on, finishing Wed 7 Apr instead of Tue 6 Apr: past the finish promised to the client, Tue 6 Apr.',
+    ]);
+  });
 });
