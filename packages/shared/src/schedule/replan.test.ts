@@ -27,6 +27,21 @@ describe('planReplan', () => {
     ]);
   });
 
+  it('leaves a double-booked job where it is instead of queuing it behind the other, and moves the job after them one day', () => {
+    // b and c were already booked on the same days (the board shows that as a conflict); d follows them. a's end does not
+    // reach c, which still overlaps b as much as before; b's new end runs into d.
+    const target = span({ assignmentId: 'a', days: ['2027-04-12', '2027-04-13'] });
+    const b = span({ assignmentId: 'b', days: ['2027-04-14', '2027-04-15', '2027-04-16'] });
+    const c = span({ assignmentId: 'c', days: ['2027-04-15', '2027-04-16'] });
+    const d = span({ assignmentId: 'd', days: ['2027-04-19'] });
+    const plan = planReplan({ target, heldDates: ['2027-04-13'], mode: 'push-and-ripple', laterOnCrew: [d, c, b], calendarFor: () => calendar });
+    expect(plan.moves.map((m) => [m.assignmentId, m.toDays])).toEqual([
+      ['a', ['2027-04-12', '2027-04-13', '2027-04-14']],
+      ['b', ['2027-04-15', '2027-04-16', '2027-04-19']],
+      ['d', ['2027-04-20']],
+    ]);
+  });
+
   it('never moves a rippled job before its earliest start', () => {
     const target = span({ assignmentId: 'a', days: ['2027-05-04'] });
     const next = span({ assignmentId: 'b', days: ['2027-05-05'], earliestStart: '2027-05-10' });

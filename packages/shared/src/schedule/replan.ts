@@ -56,8 +56,8 @@ export interface ReplanPlan {
  * - "push", when the days stood down start on the job's first day, moves the start past that first run of held days;
  *   otherwise the start stays (days already worked never move). Either way the span grows by the held days left inside
  *   it, which stay on the board marked by the stand-down, so the job ends later by exactly the working days lost.
- * - "push-and-ripple" then moves each of the same crew's later jobs just far enough not to overlap the one before, on
- *   that crew's calendar and never before a job's earliest start.
+ * - "push-and-ripple" then moves each of the same crew's later jobs just far enough not to run into a job moved ahead of
+ *   it, on that crew's calendar and never before a job's earliest start; jobs already double-booked stay overlapped.
  * - "move-crew" gives another crew what is left of the job (its working days from the first day stood down) from the
  *   day chosen, after any job that crew has already begun, and ripples that crew's later jobs the same way.
  * Pure: the API previews and commits with the same function.
@@ -89,7 +89,7 @@ export function planReplan(request: ReplanRequest): ReplanPlan {
     plan.requestedStart = requested;
     const toDays = spanFor(start, remaining, calendar);
     plan.moves.push(move(target, toCrewId, toDays, remaining));
-    plan.moves.push(...ripple(toDays, others.filter((o) => o.startDate >= requested), calendar));
+    plan.moves.push(...ripple({ fromEnd: null, toDays }, others.filter((o) => o.startDate >= requested), calendar));
     return plan;
   }
 
@@ -106,21 +106,33 @@ export function planReplan(request: ReplanRequest): ReplanPlan {
     const later = request.laterOnCrew.filter(
       (other) => other.assignmentId !== target.assignmentId && other.crewId === target.crewId && other.startDate >= target.startDate,
     );
-    plan.moves.push(...ripple(pushedDays, later, calendar));
+    plan.moves.push(...ripple({ fromEnd: target.days[target.days.length - 1]!, toDays: pushedDays }, later, calendar));
   }
   return plan;
 }
 
-/** Moves each job, in start order, to the first working day after the one before it ends, while they overlap. */
-function ripple(after: readonly string[], candidates: readonly PlacedSpan[], calendar: WorkCalendar): PlannedMove[] {
+/**
+ * Moves each later job, in start order, to the first working day after any moved job that used to end before it began
+ * and now runs into it. Jobs that already overlapped (a double booking, which the board shows as a conflict) keep that
+ * overlap rather than being queued one after the other, so losing a day moves the crew's later work by the days lost
+ * and what calendars and earliest starts add, never by the length of a double booking it had before.
+ * `fromEnd` is null for a job arriving from another crew: it ended before none of this crew's jobs.
+ */
+function ripple(first: { fromEnd: string | null; toDays: readonly string[] }, candidates: readonly PlacedSpan[], calendar: WorkCalendar): PlannedMove[] {
   const moves: PlannedMove[] = [];
-  let lastBusy = after[after.length - 1]!;
+  const moved = [{ fromEnd: first.fromEnd, toEnd: first.toDays[first.toDays.length - 1]! }];
   for (const other of [...candidates].sort(byStart)) {
-    if (other.days[0]! > lastBusy) break;
-    const start = atOrAfterWorkingDay(addWorkingDays(lastBusy, 1, calendar), calendar, other.earliestStart);
+    const begins = other.days[0]!;
+    let pushedPast: string | null = null;
+    for (const earlier of moved) {
+      const wasBefore = earlier.fromEnd === null || earlier.fromEnd < begins;
+      if (wasBefore && earlier.toEnd >= begins && (pushedPast === null || earlier.toEnd > pushedPast)) pushedPast = earlier.toEnd;
+    }
+    if (pushedPast === null) continue;
+    const start = atOrAfterWorkingDay(addWorkingDays(pushedPast, 1, calendar), calendar, other.earliestStart);
     const days = spanFor(start, other.workingDays, calendar);
     moves.push(move(other, other.crewId, days, other.workingDays));
-    lastBusy = days[days.length - 1]!;
+    moved.push({ fromEnd: other.days[other.days.length - 1]!, toEnd: days[days.length - 1]! });
   }
   return moves;
 }
