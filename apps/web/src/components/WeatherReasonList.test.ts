@@ -39,11 +39,13 @@ describe('WeatherReasonList', () => {
   it('reads the hour-counting rules as hours needed, missing or covered, with no hour of day', () => {
     const text = figures(day([
       reason({ ruleId: 'day.usable-hours', threshold: 4, unit: 'h', observed: 2.5, at: null }),
+      reason({ ruleId: 'day.usable-hours', threshold: 2, unit: 'h', observed: 1.99, at: null }),
       reason({ ruleId: 'forecast.missing', verdict: 'caution', threshold: 0, unit: 'h', observed: 3, at: null }),
       reason({ ruleId: 'forecast.reach.frost-protection', verdict: 'caution', threshold: 57, unit: 'h', observed: 52.5, at: null }),
     ]));
     expect(text).toEqual([
       'Needs 4 h usable · forecast leaves 2.5 h',
+      'Needs 2 h usable · forecast leaves 1.9 h',
       'No forecast for 3 h of the working window',
       'Forecast covers 52.5 h of the 57 h it should reach',
     ]);

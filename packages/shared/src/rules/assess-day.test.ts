@@ -50,7 +50,11 @@ describe('assessDay', () => {
     expect(a?.usableHours).toBe(usable);
     expect(a?.verdict).toBe(expected);
     const short = a?.reasons.find((r) => r.ruleId === 'day.usable-hours');
-    if (expected === 'stop') expect(short).toMatchObject({ verdict: 'stop', threshold: 2, observed: 1.99 });
+    if (expected === 'stop') {
+      expect(short).toMatchObject({ verdict: 'stop', threshold: 2, observed: 1.99 });
+      // Rounded down in words, so a day just short of the minimum never reads as meeting it.
+      expect(short?.message).toMatch(/^Only 1\.9 usable h of /);
+    }
     else expect(short).toBeUndefined();
   });
 

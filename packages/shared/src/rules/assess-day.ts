@@ -178,7 +178,7 @@ function assessActivity(ctx: HourContext, activity: Activity, mortar: MortarKind
       observed: usable,
       at: null,
       hours: 0,
-      message: `Only ${fmt(usable)} usable h of ${fmt(ctx.windowHours)} in the working window, fewer than the ${fmt(needed)} h the firm needs to start.`,
+      message: `Only ${fmt(Math.floor(usable * 10 + 1e-9) / 10)} usable h of ${fmt(ctx.windowHours)} in the working window, fewer than the ${fmt(needed)} h the firm needs to start.`,
       source: SOURCES.usableHours,
     });
   }
