@@ -18,7 +18,10 @@ describe('demo firm seed', () => {
     const dataSource = await testDataSource();
     expect(await seedDemoFirm(dataSource, TODAY)).toEqual({ created: true });
     const first = await countRows(dataSource);
-    expect(first).toMatchObject({ firm: 1, app_user: DEMO_SIGN_INS.length + 6, crew: 4, client: 12, site: 12, job: 40, quote: 2 });
+    expect(first).toMatchObject({
+      firm: 1, app_user: DEMO_SIGN_INS.length + 6, crew: 4, client: 12, site: 12, job: 40, quote: 2,
+      supplier: 2, access_booking: 5, scaffold_inspection: 3, access_change_request: 0,
+    });
 
     expect(await seedDemoFirm(dataSource, TODAY)).toEqual({ created: false });
     expect(await countRows(dataSource)).toEqual(first);

@@ -2,6 +2,7 @@ import argon2 from 'argon2';
 import type { DataSource, EntityManager } from 'typeorm';
 import { addDays, isoWeekday, type AccessNeed, type ClientContact, type Role, type TimeOffValues, type WorkType } from '@hodboard/shared';
 import { EventBus } from '../lib/event-bus.js';
+import { seedDemoAccess } from './demo-access.js';
 import { seedDemoQuotes } from './demo-quotes.js';
 import { todayIn } from '../lib/today.js';
 import type { Actor } from '../services/actor.js';
@@ -191,6 +192,10 @@ async function seedInto(dataSource: DataSource, passwordHash: string, today: str
   await dataSource.manager.update(Job, { id: base.jobs[33]!.id }, { earliestStart: addDays(monday, 21) });
   await schedule.place(actor, { jobId: base.jobs[33]!.id, crewId: base.crews[2]!.id, startDate: addDays(monday, 15), confirmDoubleBooking: true });
   await seedSiteNotes(dataSource, base.firm.id, base.jobs, base.members);
+  const job = (reference: string) => base.jobs.find((candidate) => candidate.reference === reference)!;
+  await seedDemoAccess(dataSource, actor, {
+    erectedScaffold: job('J0001'), erectedScaffoldToo: job('J0002'), erectedTower: job('J0004'), confirmedScaffold: job('J0013'), requestedScaffold: job('J0010'),
+  });
   await seedDemoQuotes(dataSource, actor, { sent: base.jobs[36]!, draft: base.jobs[38]! });
 }
 
