@@ -93,6 +93,15 @@ describe('forecasts on the board', () => {
     expect(view.conflicts).toContainEqual(expect.objectContaining({ kind: 'weather-stop', date: '2027-03-25', severity: 'stop' }));
   });
 
+  it('keeps the marker of a stop day once it has passed, but no longer counts it as an issue to act on', async () => {
+    provider.scenario = 'gale';
+    await refresh();
+    h.now.value = new Date('2027-03-26T09:00:00Z');
+    const view = await board();
+    expect(view.weather.find((d) => d.date === '2027-03-25')?.verdict).toBe('stop');
+    expect(view.conflicts.filter((c) => c.kind === 'weather-stop' && c.date === '2027-03-25')).toEqual([]);
+  });
+
   it('stops bricklaying in a hard frost by the 3 °C-and-falling rule', async () => {
     provider.scenario = 'hard-frost';
     await refresh();

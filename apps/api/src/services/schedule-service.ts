@@ -426,8 +426,10 @@ export class ScheduleService {
       () => this.conflictsFor(manager, firmId, assignments, jobs, calendars),
     ] as const);
     const crewOf = new Map(assignments.map((a) => [a.id, a.crewId]));
+    // A stop on a day already gone is history, shown by its marker; only days still to come need acting on.
+    const today = this.weather?.todayFor(calendars) ?? '';
     const weatherConflicts: ConflictDto[] = weather
-      .filter((day) => day.verdict === 'stop')
+      .filter((day) => day.verdict === 'stop' && day.date >= today)
       .map((day) => ({
         kind: 'weather-stop', assignmentId: day.assignmentId, jobId: day.jobId, crewId: crewOf.get(day.assignmentId) ?? '',
         date: day.date, severity: 'stop', message: `Weather stop: ${day.reasons.find((r) => r.verdict === 'stop')?.message ?? 'see the forecast'}`,

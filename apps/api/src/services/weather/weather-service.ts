@@ -62,6 +62,11 @@ export class WeatherService {
    * The verdict of each placed job-day that has a forecast: the job's activities assessed over the firm's
    * working hours cut to daylight at the site. Days past the forecast have no entry.
    */
+  /** Today in the firm's time zone, by this service's clock. */
+  todayFor(calendars: FirmCalendars): string {
+    return todayIn(calendars.timeZone, this.clock());
+  }
+
   async dayVerdicts(
     manager: EntityManager, firmId: string, assignments: PlacedAssignment[], calendars: FirmCalendars, siteOfJob?: Map<string, string>,
   ): Promise<DayWeatherDto[]> {
