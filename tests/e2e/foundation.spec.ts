@@ -144,7 +144,7 @@ test.describe('foundation', () => {
     await page.getByRole('textbox', { name: 'Search clients' }).fill(tag);
     const clientRow = page.getByRole('row', { name: new RegExp(clientName) });
     await expect(clientRow).toBeVisible();
-    await expect(clientRow).toContainText('Wren Ashworth and 1 more');
+    await expect(clientRow).toContainText('2 contacts · Wren Ashworth · Orla Ashworth');
     await expect(page.getByRole('row')).toHaveCount(2);
     await clientRow.getByRole('button', { name: 'Show sites' }).click();
     await expect(sites.getByText(address)).toBeVisible();
