@@ -88,6 +88,11 @@ describe('moving, resizing and removing', () => {
     expect((await board('2027-03-01', '2027-03-12')).trayJobIds).toContain(ids.jobId);
     const history = await request(h.app).get(`/api/jobs/${ids.jobId}/history`).set(owner.auth).expect(200);
     expect((history.body as Array<{ action: string }>).map((e) => e.action).slice(0, 4)).toEqual(['unscheduled', 'rescheduled', 'rescheduled', 'scheduled']);
+    // The history reads in words: dates as the office says them, not as stored.
+    const summaries = (history.body as Array<{ summary: string }>).map((e) => e.summary).slice(0, 4);
+    expect(summaries[0]).toBe('Taken off the board');
+    expect(summaries[2]).toBe('Dates changed: Thu 4 Mar to Mon 8 Mar');
+    expect(summaries[3]).toMatch(/^Put on .+, Mon 1 Mar to Wed 3 Mar$/);
   });
 
   it('answers a stale version with 409, the current state and who changed it', async () => {

@@ -283,7 +283,7 @@ describe('quote life cycle', () => {
     expect(board.trayJobIds).not.toContain(jobId);
     const mail = h.mailer.lastTo('office@wrenfold.example')!;
     expect(mail.subject).toBe(`Quote ${quote.reference} accepted by Mo Hartigan`);
-    expect(mail.text).toContain('The job is already on the board with Wall crew from 2027-03-15; it stays where it is.');
+    expect(mail.text).toContain('The job is already on the board with Wall crew from Mon 15 Mar; it stays where it is.');
   });
 
   it('lets the client decline with a reason, after which the link cannot accept', async () => {

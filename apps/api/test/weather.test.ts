@@ -252,7 +252,7 @@ describe('stand-downs and re-plans', () => {
     expect((await h.dataSource.query(`SELECT count(*)::int AS n FROM access_change_request`))[0].n).toBe(1);
     const sent = await pushesSent();
     expect(sent.map((p) => p.endpoint)).toEqual(['https://push.example/lead@heather.example']);
-    expect(sent[0]!.message.body).toContain('from 2027-03-30 to 2027-03-31');
+    expect(sent[0]!.message.body).toContain('Tue 30 Mar to Wed 31 Mar');
   });
 
   it('lets one of two re-plans of stand-downs on the same crew through at once; the other is refused until previewed again', async () => {
@@ -564,7 +564,7 @@ describe('a stand-down in the middle of a job', () => {
     expect(moved).toEqual([[ids.crewId, ridge].sort()]);
     const sent = await pushesSent();
     expect(sent.map((p) => p.endpoint).sort()).toEqual(['https://push.example/gable-lead@heather.example', 'https://push.example/ridge-lead@heather.example']);
-    expect(sent.every((p) => p.message.body.includes('from 2027-05-26 to 2027-05-28'))).toBe(true);
+    expect(sent.every((p) => p.message.body.includes('Wed 26 May to Fri 28 May'))).toBe(true);
   });
 });
 

@@ -2,11 +2,13 @@ import type { DataSource, EntityManager, SelectQueryBuilder } from 'typeorm';
 import {
   can,
   canTransition,
+  dayRangeLabel,
   jobInputSchema,
   jobStatusLabels,
   type JobDto,
   type JobHistoryEntryDto,
   type JobListQuery,
+  type JobStatus,
   type JobStatusChangeInput,
   type Page,
 } from '@hodboard/shared';
@@ -186,17 +188,21 @@ async function nextReference(manager: EntityManager, firmId: string): Promise<st
   return `J${String(sequence).padStart(4, '0')}`;
 }
 
+function statusLabel(status: unknown): string {
+  return typeof status === 'string' && status in jobStatusLabels ? jobStatusLabels[status as JobStatus] : String(status ?? '');
+}
+
 function describeChange(event: AuditEvent): string {
   const after = event.after ?? {};
   const before = event.before ?? {};
-  const span = (days: unknown) => (Array.isArray(days) && days.length ? `${days[0]} to ${days[days.length - 1]}` : '');
+  const span = (days: unknown) => (Array.isArray(days) && days.length ? dayRangeLabel(String(days[0]), String(days[days.length - 1])) : '');
   switch (event.action) {
     case 'created': return 'Job created';
     case 'updated': return 'Details edited';
-    case 'status-changed': return `Status ${String(before.status ?? '')} → ${String(after.status ?? '')}`;
+    case 'status-changed': return `Status ${statusLabel(before.status)} → ${statusLabel(after.status)}`;
     case 'scheduled': return `Put on ${String(after.crew ?? 'a crew')}, ${span(after.days)}`;
-    case 'rescheduled': return `Moved to ${span(after.days)}`;
-    case 'moved-crew': return `Moved to another crew, ${span(after.days)}`;
+    case 'rescheduled': return `Dates changed: ${span(after.days)}`;
+    case 'moved-crew': return `Moved to another crew: ${span(after.days)}`;
     case 'unscheduled': return 'Taken off the board';
     default: return event.action.replaceAll('-', ' ');
   }

@@ -1,7 +1,7 @@
 import webpush from 'web-push';
 import { In, type DataSource } from 'typeorm';
 import type { Logger } from 'pino';
-import type { PushConfigDto, PushMessageDto, PushSubscriptionInput, ScheduleChangeDto } from '@hodboard/shared';
+import { dayRangeLabel, type PushConfigDto, type PushMessageDto, type PushSubscriptionInput, type ScheduleChangeDto } from '@hodboard/shared';
 import { CrewMember, Membership, PushSubscriptionRow } from '../entities/index.js';
 import type { DomainEvent, EventBus } from '../lib/event-bus.js';
 import { requirePermission, type Actor } from './actor.js';
@@ -123,7 +123,7 @@ function messageFor(event: DomainEvent): PushMessageDto {
       : event.type.startsWith('hold:')
         ? 'A weather stand-down was recorded for your crew; open Hodboard to see it.'
         : days.length
-          ? `${job}: now ${days.length} day${days.length > 1 ? 's' : ''} from ${days[0]} to ${days[days.length - 1]}.`
+          ? `${job}: now ${days.length} day${days.length > 1 ? 's' : ''}, ${dayRangeLabel(days[0]!, days[days.length - 1]!)}.`
           : `${job} changed.`;
   return { title: 'Your schedule changed', body, url: '/crew', tag: `schedule-${change.job?.id ?? event.id}` };
 }

@@ -17,6 +17,7 @@ import {
   type QuoteStatus,
   type QuoteSummaryDto,
   type QuoteVersionDto,
+  shortDayLabel,
 } from '@hodboard/shared';
 import { Assignment, AuditEvent, Client, Deposit, Firm, Job, Notification, Quote, QuoteVersion, Site } from '../entities/index.js';
 import { errors } from '../errors.js';
@@ -269,7 +270,7 @@ export class QuoteService {
       }
       if (loaded.firm.email) {
         const where = placed
-          ? `The job is already on the board with ${placed.crew.name} from ${placed.startDate}; it stays where it is.`
+          ? `The job is already on the board with ${placed.crew.name} from ${shortDayLabel(placed.startDate)}; it stays where it is.`
           : job.status === 'booked'
             ? "The job is booked and waiting in the board's tray."
             : `The job is ${jobStatusLabels[job.status].toLowerCase()} and has been left as it is.`;

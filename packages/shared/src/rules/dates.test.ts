@@ -1,13 +1,16 @@
+import { format } from 'date-fns';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   addDays,
+  dayRangeLabel,
   daysBetween,
   formatDayNumber,
   isoWeekday,
   localDateOf,
   parseInstant,
   parseIsoDate,
+  shortDayLabel,
   zonedTimeToInstant,
 } from './dates.js';
 
@@ -90,5 +93,29 @@ describe('instants', () => {
   it('finds the local date of an instant near midnight in summer time', () => {
     expect(localDateOf('2026-07-02T23:30:00Z', 'Europe/London')).toBe('2026-07-03');
     expect(localDateOf('2026-01-02T23:30:00Z', 'Europe/London')).toBe('2026-01-02');
+  });
+});
+
+describe('day labels in messages', () => {
+  it('names the weekday, day and month of a date, whatever the machine\'s time zone', () => {
+    // Source: proleptic Gregorian calendar: 30 Nov 2026 is a Monday, 26 May 2027 a Wednesday, 29 Feb 2028 a Tuesday.
+    expect(shortDayLabel('2026-11-30')).toBe('Mon 30 Nov');
+    expect(shortDayLabel('2027-05-26')).toBe('Wed 26 May');
+    expect(shortDayLabel('2028-02-29')).toBe('Tue 29 Feb');
+    expect(dayRangeLabel('2026-11-30', '2026-12-03')).toBe('Mon 30 Nov to Thu 3 Dec');
+    expect(dayRangeLabel('2027-05-26', '2027-05-26')).toBe('Wed 26 May');
+    expect(() => shortDayLabel('2027-02-30')).toThrow();
+  });
+
+  it('agrees with date-fns for any date', () => {
+    // Source: date-fns (registry reference library), format "EEE d MMM" of a Date built from the same parts; the
+    // label must match the web app's, which formats with date-fns.
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 60_000 }), (day) => {
+        const date = formatDayNumber(day);
+        const [y, m, d] = date.split('-').map(Number) as [number, number, number];
+        expect(shortDayLabel(date)).toBe(format(new Date(y, m - 1, d), 'EEE d MMM'));
+      }),
+    );
   });
 });

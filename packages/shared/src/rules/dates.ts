@@ -1,4 +1,5 @@
 import { TZDate } from '@date-fns/tz';
+import { format } from 'date-fns';
 
 /** A plain calendar date, `YYYY-MM-DD`, read in the calendar's own time zone. */
 export type IsoDate = string;
@@ -233,3 +234,17 @@ export function zonedTimeToInstant(date: IsoDate, hhmm: string, timeZone: string
 
 export const MS_PER_DAY = DAY_MS;
 export const MS_PER_HOUR = 3_600_000;
+
+/**
+ * A calendar date as people read it in a message, e.g. "Wed 26 May", worded as the web app words it (date-fns
+ * "EEE d MMM"). Built from the date's own parts, so no time zone can shift it.
+ */
+export function shortDayLabel(date: IsoDate): string {
+  const { year, month, day } = civilFromDays(parseIsoDate(date));
+  return format(new Date(year, month - 1, day, 12), 'EEE d MMM');
+}
+
+/** A run of dates as "Mon 30 Nov to Thu 3 Dec", or one day's label when it starts and ends on the same day. */
+export function dayRangeLabel(first: IsoDate, last: IsoDate): string {
+  return first === last ? shortDayLabel(first) : `${shortDayLabel(first)} to ${shortDayLabel(last)}`;
+}

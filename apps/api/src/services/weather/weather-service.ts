@@ -20,6 +20,7 @@ import {
   type WeatherLimitOverrides,
   type WeatherLimitsDto,
   type WeatherOutlookDto,
+  shortDayLabel,
 } from '@hodboard/shared';
 import { AccessBooking, Assignment, Client, Crew, Firm, FirmWeatherLimits, Job, Notification, Site, User, WeatherHold } from '../../entities/index.js';
 import { errors } from '../../errors.js';
@@ -246,7 +247,7 @@ export class WeatherService {
         .getMany();
       const overlap = dates.filter((date) => standing.some((other) => other.dates.includes(date)));
       if (overlap.length) {
-        throw errors.conflict(`${job.reference} is already stood down on ${overlap.map(shortDay).join(', ')}; withdraw that stand-down first to record it again.`);
+        throw errors.conflict(`${job.reference} is already stood down on ${overlap.map(shortDayLabel).join(', ')}; withdraw that stand-down first to record it again.`);
       }
       const site = await manager.findOneByOrFail(Site, { id: job.siteId });
       const from = new Date(Date.parse(`${dates[0]}T00:00:00Z`));
@@ -477,7 +478,7 @@ export class WeatherService {
     const warnings: string[] = [];
     if (receivingCrew && plan.blockedBy.length > 0 && plan.moves[0]) {
       const references = plan.blockedBy.map((id) => jobs.find((j) => j.id === spans.get(id)?.jobId)?.reference ?? 'a job');
-      warnings.push(`${receivingCrew.name} is still on ${references.join(', ')} on ${shortDay(plan.requestedStart!)}, so they start on ${shortDay(plan.moves[0].startDate)}.`);
+      warnings.push(`${receivingCrew.name} is still on ${references.join(', ')} on ${shortDayLabel(plan.requestedStart!)}, so they start on ${shortDayLabel(plan.moves[0].startDate)}.`);
     }
     if (plan.lostWorkingDays === 0) warnings.push('None of the days stood down are working days of this job; nothing moves.');
     const moves = plan.moves.map((m) => {
@@ -590,10 +591,6 @@ function planKeyOf(plan: Pick<ReplanPreviewDto, 'mode' | 'moves' | 'accessChange
   return createHash('sha256').update(canonical).digest('base64url');
 }
 
-/** A date as the office reads it, e.g. "Wed 26 May". */
-function shortDay(date: string): string {
-  return new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));
-}
 
 function toLimitsDto(row: FirmWeatherLimits | null): WeatherLimitsDto {
   const { settings, overrides, ignored } = firmRuleSettings(row?.overrides);
