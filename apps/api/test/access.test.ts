@@ -79,7 +79,7 @@ describe('the lead time a supplier needs', () => {
     h.now.value = new Date('2027-02-23T08:00:00Z');
     expect(await notConfirmed()).toEqual([expect.objectContaining({
       jobId: ids.jobId, severity: 'warning', date: null,
-      message: "Scaffold not confirmed; Lofty Poles Scaffolding needs 3 working days' notice (by 2027-02-23)",
+      message: "Scaffold not confirmed; Lofty Poles Scaffolding needs 3 working days' notice (by Tue 23 Feb)",
     })]);
     await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: booking.version }).expect(200);
     expect(await notConfirmed()).toEqual([]);
@@ -788,7 +788,7 @@ describe('inspections over a whole hire', () => {
     h.now.value = new Date('2027-06-15T12:00:00Z');
     expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'ok', nextDue: '2027-06-16', reasons: ['after-adverse-weather'] });
     expect((await boardAround('2027-06-14', '2027-06-18')).conflicts.filter((c) => c.kind === 'inspection-overdue')).toEqual([
-      expect.objectContaining({ severity: 'warning', date: '2027-06-16' }),
+      expect.objectContaining({ severity: 'warning', date: '2027-06-16', message: expect.stringContaining('inspection due by Wed 16 Jun') }),
     ]);
 
     // Nobody inspected on the 16th: on the 17th it is overdue and work at height stops.
@@ -796,7 +796,7 @@ describe('inspections over a whole hire', () => {
     expect((await bookingNow(booking.id)).inspection).toMatchObject({ status: 'overdue', nextDue: '2027-06-16', lastInspectedOn: '2027-06-11' });
     const stop = (await boardAround('2027-06-14', '2027-06-18')).conflicts.find((c) => c.kind === 'inspection-overdue');
     expect(stop).toMatchObject({ severity: 'stop', date: '2027-06-17' });
-    expect(stop!.message).toMatch(/overdue \(2027-06-16\).*competent person/);
+    expect(stop!.message).toMatch(/overdue \(Wed 16 Jun\).*competent person/);
     const band = (await boardAround('2027-06-14', '2027-06-18')).accessBands[0];
     expect(band).toMatchObject({ inspection: 'overdue' });
   });

@@ -4,11 +4,13 @@ import {
   accessWindowFor,
   addDays,
   addWorkingDays,
+  dayRangeLabel,
   firmRuleSettings,
   hireCost,
   inspectionRecordsKeptUntil,
   inspectionsDue,
   quotedHireWeeks,
+  shortDayLabel,
   windStopDays,
   type AccessType,
   type Activity,
@@ -611,14 +613,14 @@ export class AccessService {
         if (window) {
           const outside = assignment.days.filter((day) => day < window.erect || day >= window.strike);
           for (const date of outside) {
-            conflicts.push({ ...base, kind: 'outside-access-window', date, severity: 'warning', message: `Outside the ${label} booking (${window.erect} to ${window.strike})` });
+            conflicts.push({ ...base, kind: 'outside-access-window', date, severity: 'warning', message: `Outside the ${label} booking (${dayRangeLabel(window.erect, window.strike)})` });
           }
         }
         if (booking.state === 'requested' && window) {
           const confirmBy = addWorkingDays(window.erect, -booking.supplier.leadTimeWorkingDays, calendars.firmCalendar);
           if (today >= confirmBy) {
             conflicts.push({ ...base, kind: 'access-not-confirmed', date: null, severity: 'warning',
-              message: `${accessTypeLabels[booking.accessType]} not confirmed; ${booking.supplier.name} needs ${booking.supplier.leadTimeWorkingDays} working days' notice (by ${confirmBy})` });
+              message: `${accessTypeLabels[booking.accessType]} not confirmed; ${booking.supplier.name} needs ${booking.supplier.leadTimeWorkingDays} working days' notice (by ${shortDayLabel(confirmBy)})` });
           }
         }
         const hire = hireFor(booking);
@@ -632,12 +634,12 @@ export class AccessService {
             conflicts.push({ ...base, kind: 'inspection-overdue', date: today, severity: 'stop',
               message: status.status === 'unsafe'
                 ? `Last ${label} inspection found it not safe to use: no work at height until a competent person passes it`
-                : `${accessTypeLabels[booking.accessType]} inspection ${status.status === 'due' ? 'due' : 'overdue'} (${status.nextDue}): a competent person must inspect it before work at height` });
+                : `${accessTypeLabels[booking.accessType]} inspection ${status.status === 'due' ? 'due' : 'overdue'} (${status.nextDue ? shortDayLabel(status.nextDue) : 'now'}): a competent person must inspect it before work at height` });
           } else if (status.nextDue) {
             const nextWorkDay = assignment.days.find((day) => day > today && day >= status.nextDue!);
             if (nextWorkDay) {
               conflicts.push({ ...base, kind: 'inspection-overdue', date: nextWorkDay, severity: 'warning',
-                message: `${accessTypeLabels[booking.accessType]} inspection due by ${status.nextDue} (${references.get(assignment.jobId) ?? 'job'})` });
+                message: `${accessTypeLabels[booking.accessType]} inspection due by ${shortDayLabel(status.nextDue)} (${references.get(assignment.jobId) ?? 'job'})` });
             }
           }
         }
