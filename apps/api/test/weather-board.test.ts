@@ -1,21 +1,12 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
-import type { BoardDto, ForecastHour, WeatherHoldDto, WeatherOutlookDto } from '@hodboard/shared';
+import type { BoardDto, WeatherHoldDto, WeatherOutlookDto } from '@hodboard/shared';
 import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
-import type { ForecastProvider } from '../src/services/weather/forecast-provider.js';
 import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+import { chimneyJobOverEaster, ScenarioProvider } from './weather-fixtures.js';
 
 const LAT = 53.8;
 const LON = -1.55;
-
-/** The scenario files the local fake serves, in process. */
-class ScenarioProvider implements ForecastProvider {
-  scenario: ScenarioName = 'calm-week';
-  constructor(private readonly now: { value: Date }) {}
-  async hourly(lat: number, lon: number, days: number): Promise<ForecastHour[]> {
-    return scenarioHours(this.scenario, lat, lon, this.now.value.getTime() - 86_400_000, (days + 1) * 24);
-  }
-}
 
 let h: Harness;
 let provider: ScenarioProvider;
@@ -31,12 +22,7 @@ beforeEach(async () => {
   await truncateAll(h.dataSource);
   owner = await signUpFirm(h, 'Heather Lane Masonry', 'owner@heather.example');
   ids = await populateFirm(h, owner);
-  await request(h.app).post(`/api/access-bookings/${ids.bookingId}/state`).set(owner.auth).send({ state: 'cancelled', version: 1 }).expect(200);
-  const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
-  await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth)
-    .send({ ...job.body, workTypes: ['chimney'], accessNeeds: ['scaffold'], estimatedWorkingDays: 2, version: job.body.version }).expect(200);
-  await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
-    .send({ crewId: ids.crewId, startDate: '2027-03-25', workingDays: 2, version: 1 }).expect(200);
+  await chimneyJobOverEaster(h, owner, ids);
 });
 afterAll(async () => {
   await h.dataSource.destroy();

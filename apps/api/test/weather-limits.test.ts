@@ -1,17 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { defaultRuleSettings, type BoardDto, type CrewDaysDto, type ForecastHour, type WeatherLimitsDto, type WeatherOutlookDto } from '@hodboard/shared';
-import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
-import type { ForecastProvider } from '../src/services/weather/forecast-provider.js';
+import { defaultRuleSettings, type BoardDto, type CrewDaysDto, type WeatherLimitsDto, type WeatherOutlookDto } from '@hodboard/shared';
 import { addPerson, countRows, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
-
-class ScenarioProvider implements ForecastProvider {
-  scenario: ScenarioName = 'calm-week';
-  constructor(private readonly now: { value: Date }) {}
-  async hourly(lat: number, lon: number, days: number): Promise<ForecastHour[]> {
-    return scenarioHours(this.scenario, lat, lon, this.now.value.getTime() - 86_400_000, (days + 1) * 24);
-  }
-}
+import { ScenarioProvider } from './weather-fixtures.js';
 
 let h: Harness;
 let owner: SignedIn;

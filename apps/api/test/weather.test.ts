@@ -2,22 +2,11 @@ import { createECDH, randomBytes } from 'node:crypto';
 import request from 'supertest';
 import webpush from 'web-push';
 import { afterAll, afterEach, beforeEach, describe, expect, it } from 'vitest';
-import type { AccessBookingDto, BoardDto, CrewDto, ForecastHour, PushMessageDto, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
+import type { AccessBookingDto, BoardDto, CrewDto, PushMessageDto, ReplanPreviewDto, WeatherHoldDto } from '@hodboard/shared';
 import { createWeatherFake } from '../src/fakes/weather-fake.js';
-import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
-import { HttpForecastProvider, HttpGeocoder, type ForecastProvider } from '../src/services/weather/forecast-provider.js';
+import { HttpForecastProvider, HttpGeocoder } from '../src/services/weather/forecast-provider.js';
 import { addPerson, countRows, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
-
-/** The same scenario files the local fake serves, in process, with a switch to make it fail. */
-class ScenarioProvider implements ForecastProvider {
-  scenario: ScenarioName = 'calm-week';
-  isDown = false;
-  constructor(private readonly now: { value: Date }) {}
-  async hourly(lat: number, lon: number, days: number): Promise<ForecastHour[]> {
-    if (this.isDown) throw new Error('forecast service answered 503');
-    return scenarioHours(this.scenario, lat, lon, this.now.value.getTime() - 86_400_000, (days + 1) * 24);
-  }
-}
+import { chimneyJobOverEaster, ScenarioProvider } from './weather-fixtures.js';
 
 let h: Harness;
 let provider: ScenarioProvider;
@@ -44,12 +33,7 @@ beforeEach(async () => {
   await truncateAll(h.dataSource);
   owner = await signUpFirm(h, 'Heather Lane Masonry', 'owner@heather.example');
   ids = await populateFirm(h, owner);
-  await request(h.app).post(`/api/access-bookings/${ids.bookingId}/state`).set(owner.auth).send({ state: 'cancelled', version: 1 }).expect(200);
-  const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
-  await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth)
-    .send({ ...job.body, workTypes: ['chimney'], accessNeeds: ['scaffold'], estimatedWorkingDays: 2, version: job.body.version }).expect(200);
-  await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
-    .send({ crewId: ids.crewId, startDate: '2027-03-25', workingDays: 2, version: 1 }).expect(200);
+  await chimneyJobOverEaster(h, owner, ids);
 });
 afterAll(async () => {
   await h.dataSource.destroy();
