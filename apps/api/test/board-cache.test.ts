@@ -1,19 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
-import type { BoardDto, ForecastHour } from '@hodboard/shared';
-import { scenarioHours, type ScenarioName } from '../src/fakes/weather-scenarios.js';
-import type { ForecastProvider } from '../src/services/weather/forecast-provider.js';
+import type { BoardDto } from '@hodboard/shared';
 import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
-
-class ScenarioProvider implements ForecastProvider {
-  scenario: ScenarioName = 'calm-week';
-  isDown = false;
-  constructor(private readonly now: { value: Date }) {}
-  async hourly(lat: number, lon: number, days: number): Promise<ForecastHour[]> {
-    if (this.isDown) throw new Error('forecast service answered 503');
-    return scenarioHours(this.scenario, lat, lon, this.now.value.getTime() - 86_400_000, (days + 1) * 24);
-  }
-}
+import { ScenarioProvider } from './weather-fixtures.js';
 
 let h: Harness;
 let owner: SignedIn;
