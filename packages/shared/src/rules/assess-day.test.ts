@@ -6,6 +6,14 @@ import { daylight, workingWindow } from './daylight.js';
 import { calmMildHour, DAY, DAY_AND_48H, FULL_HOURS, hourlyForecast, inWindow, TO_HORIZON, WINDOW } from './fixtures/forecast-builder.js';
 import { resolveRuleSettings } from './settings.js';
 
+/** Any hour of British weather the rules must cope with, from hard frost to heat, calm to gale, dry to downpour. */
+const anyHour = fc.record({
+  tempC: fc.double({ min: -8, max: 36, noNaN: true }),
+  windMeanMs: fc.double({ min: 0, max: 20, noNaN: true }),
+  windGustMs: fc.double({ min: 0, max: 30, noNaN: true }),
+  precipMm: fc.double({ min: 0, max: 5, noNaN: true }),
+  precipProbability: fc.double({ min: 0, max: 1, noNaN: true }),
+});
 describe('assessDay', () => {
   it('gives go with the whole window usable on a calm mild day', () => {
     // Source: Hodboard rule — no reason gives go with the whole window usable; 12 °C, 2 m/s mean and 4 m/s gusts sit below every default limit (settings.test.ts)
@@ -73,15 +81,8 @@ describe('assessDay', () => {
   it('gives every activity the worst verdict of its reasons, and the day the worst of its activities', () => {
     // Source: Hodboard rule — the day verdict is the worst of its activities, an activity's the worst of its reasons
     const rank = { go: 0, caution: 1, stop: 2 } as const;
-    const hour = fc.record({
-      tempC: fc.double({ min: -8, max: 36, noNaN: true }),
-      windMeanMs: fc.double({ min: 0, max: 20, noNaN: true }),
-      windGustMs: fc.double({ min: 0, max: 30, noNaN: true }),
-      precipMm: fc.double({ min: 0, max: 5, noNaN: true }),
-      precipProbability: fc.double({ min: 0, max: 1, noNaN: true }),
-    });
     fc.assert(
-      fc.property(fc.array(hour, { minLength: 24, maxLength: 24 }), fc.subarray([...activities], { minLength: 1 }), fc.constantFrom<'uk' | 'us'>('uk', 'us'), (hours, planned, practice) => {
+      fc.property(fc.array(anyHour, { minLength: 24, maxLength: 24 }), fc.subarray([...activities], { minLength: 1 }), fc.constantFrom<'uk' | 'us'>('uk', 'us'), (hours, planned, practice) => {
         const forecast = hours.map((h, i) => ({ ...h, time: new Date(Date.parse(DAY) + i * 3_600_000).toISOString() }));
         const day = assessDay({ activities: planned, forecast, window: WINDOW, settings: resolveRuleSettings({ practice }) });
         let worstActivity = 0;
@@ -117,16 +118,9 @@ describe('assessDay', () => {
   it('gives the same verdicts and reasons for any forecast that reaches the day and the next 48 h, however much longer', () => {
     // Source: Hodboard rule — the part of a look-ahead period past the standard input only ever adds a note. The weather past the
     // horizon is the calm mild hour, which no default rule reacts to (settings.test.ts)
-    const hour = fc.record({
-      tempC: fc.double({ min: -8, max: 36, noNaN: true }),
-      windMeanMs: fc.double({ min: 0, max: 20, noNaN: true }),
-      windGustMs: fc.double({ min: 0, max: 30, noNaN: true }),
-      precipMm: fc.double({ min: 0, max: 5, noNaN: true }),
-      precipProbability: fc.double({ min: 0, max: 1, noNaN: true }),
-    });
     fc.assert(
       fc.property(
-        fc.array(hour, { minLength: TO_HORIZON, maxLength: TO_HORIZON }), fc.integer({ min: TO_HORIZON, max: FULL_HOURS }),
+        fc.array(anyHour, { minLength: TO_HORIZON, maxLength: TO_HORIZON }), fc.integer({ min: TO_HORIZON, max: FULL_HOURS }),
         fc.subarray([...activities], { minLength: 1 }), fc.constantFrom<'uk' | 'us'>('uk', 'us'),
         (hours, length, planned, practice) => {
           const full = hourlyForecast(DAY, FULL_HOURS, (h) => hours[h] ?? calmMildHour);
