@@ -13,7 +13,13 @@ vi.mock('@/stores/session-store', () => ({
   useSessionStore: () => ({ get isSignedIn() { return session.isSignedIn; }, hasPermission: (p: string) => session.permissions.has(p) }),
 }));
 
-const { describeSupplierAnswer, useSupplierAnswerNotice } = await import('./use-supplier-answer-notice');
+const { useSupplierAnswerNotice } = await import('./use-supplier-answer-notice');
+const { describeSupplierAnswer } = await import('./supplier-answer-text');
+// Loaded once here, as a page that has used them would have: the composable's own imports then resolve at once.
+await import('@/stores/access-store');
+
+/** Lets the lazily loaded connection, store and words arrive. */
+const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
 
 function booking(overrides: Partial<AccessBookingDto> = {}): AccessBookingDto {
   return {
@@ -41,7 +47,7 @@ function fakeRealtime() {
   const push = async (message: ResourceChangedMessage) => {
     for (const listener of listeners) listener(message);
     // Let the booking fetch and the toast that follows it settle.
-    await new Promise((resolve) => setTimeout(resolve, 0));
+    for (let i = 0; i < 5; i += 1) await new Promise((resolve) => setTimeout(resolve, 0));
   };
   return { client, push, listeners };
 }
@@ -58,7 +64,8 @@ describe('useSupplierAnswerNotice', () => {
     const live = fakeRealtime();
     api.getAccessBooking.mockResolvedValue(booking());
     const scope = effectScope();
-    scope.run(() => useSupplierAnswerNotice(live.client));
+    scope.run(() => useSupplierAnswerNotice(async () => live.client));
+    await settle();
     expect(live.client.start).toHaveBeenCalledTimes(1);
 
     await live.push({ type: 'access:answered', id: 'b1', version: 3 });
@@ -83,7 +90,8 @@ describe('useSupplierAnswerNotice', () => {
       },
     }));
     const scope = effectScope();
-    scope.run(() => useSupplierAnswerNotice(live.client));
+    scope.run(() => useSupplierAnswerNotice(async () => live.client));
+    await settle();
     await live.push({ type: 'access:answered', id: 'b1', version: 4 });
     expect(toast.add.mock.calls[0]![0]).toMatchObject({
       severity: 'warn',
@@ -97,7 +105,8 @@ describe('useSupplierAnswerNotice', () => {
     const live = fakeRealtime();
     api.getAccessBooking.mockResolvedValue(booking());
     const scope = effectScope();
-    scope.run(() => useSupplierAnswerNotice(live.client));
+    scope.run(() => useSupplierAnswerNotice(async () => live.client));
+    await settle();
     await live.push({ type: 'access:updated', id: 'b1', version: 3 });
     scope.stop();
     expect(live.listeners.size).toBe(0);
@@ -109,7 +118,8 @@ describe('useSupplierAnswerNotice', () => {
     session.permissions = new Set(['inspections:record']);
     const live = fakeRealtime();
     const scope = effectScope();
-    scope.run(() => useSupplierAnswerNotice(live.client));
+    scope.run(() => useSupplierAnswerNotice(async () => live.client));
+    await settle();
     await live.push({ type: 'access:answered', id: 'b1', version: 3 });
     expect(live.client.start).not.toHaveBeenCalled();
     expect(api.getAccessBooking).not.toHaveBeenCalled();

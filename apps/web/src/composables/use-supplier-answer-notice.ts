@@ -1,63 +1,46 @@
 import { onScopeDispose, watch } from 'vue';
 import { useToast } from 'primevue/usetoast';
-import { accessTypeLabels, type AccessBookingDto } from '@hodboard/shared';
-import { realtime as appRealtime, type RealtimeClient } from '@/realtime/socket';
-import { useAccessStore } from '@/stores/access-store';
+import type { RealtimeClient } from '@/realtime/socket';
 import { useSessionStore } from '@/stores/session-store';
-import { formatDay } from '@/utils/format';
 
-export interface SupplierAnswerNotice {
-  severity: 'info' | 'warn';
-  summary: string;
-  detail: string;
-}
-
-/** The office's note of a supplier's answer: a counter-proposal asks for a look, an acceptance only informs. */
-export function describeSupplierAnswer(booking: AccessBookingDto): SupplierAnswerNotice {
-  const kind = accessTypeLabels[booking.accessType].toLowerCase();
-  const jobs = booking.jobReferences.filter(Boolean).join(', ');
-  const forJobs = jobs ? ` for ${jobs}` : '';
-  const change = booking.pendingChange;
-  if (change?.status === 'countered' && change.counterErect && change.counterStrike) {
-    const note = change.supplierNote ? ` Their note: “${change.supplierNote}”` : '';
-    return {
-      severity: 'warn',
-      summary: `${booking.supplierName} proposed other dates`,
-      detail: `The ${kind}${forJobs} is now booked up ${formatDay(change.counterErect)}, down ${formatDay(change.counterStrike)}; check it still suits the work.${note}`,
-    };
-  }
-  const erect = booking.confirmedErect ? formatDay(booking.confirmedErect) : 'not set';
-  const strike = booking.confirmedStrike ? formatDay(booking.confirmedStrike) : 'not set';
-  return {
-    severity: 'info',
-    summary: `${booking.supplierName} accepted the new dates`,
-    detail: `The ${kind}${forJobs} is confirmed up ${erect}, down ${strike}.`,
-  };
-}
+const loadAppRealtime = async (): Promise<RealtimeClient> => (await import('@/realtime/socket')).realtime;
 
 /**
  * Tells the office the moment a supplier answers a date change, on whichever page they are: the answer arrives from
- * outside the firm, so nobody in the office is watching for it.
+ * outside the firm, so nobody in the office is watching for it. The live connection, the access store and the words
+ * load only for someone who manages access, so a crew's phone fetches none of them.
  */
-export function useSupplierAnswerNotice(client: RealtimeClient = appRealtime): void {
+export function useSupplierAnswerNotice(loadClient: () => Promise<RealtimeClient> = loadAppRealtime): void {
   const toast = useToast();
   const session = useSessionStore();
-  const access = useAccessStore();
   const canHear = () => session.isSignedIn && session.hasPermission('access:manage');
+  let stopListening: (() => void) | null = null;
+  let isDisposed = false;
 
-  const stopWatch = watch(canHear, (can) => can && client.start(), { immediate: true });
-  const stopListening = client.onResourceChanged((message) => {
-    if (message.type !== 'access:answered' || !canHear()) return;
-    void access
-      .refreshOne(message.id)
-      .then(() => {
-        const booking = access.bookings[message.id];
-        if (booking) toast.add({ ...describeSupplierAnswer(booking), life: 12_000 });
-      })
-      .catch(() => undefined);
-  });
+  async function showAnswer(bookingId: string): Promise<void> {
+    const [{ useAccessStore }, { describeSupplierAnswer }] = await Promise.all([import('@/stores/access-store'), import('./supplier-answer-text')]);
+    const access = useAccessStore();
+    await access.refreshOne(bookingId);
+    const booking = access.bookings[bookingId];
+    if (booking && !isDisposed) toast.add({ ...describeSupplierAnswer(booking), life: 12_000 });
+  }
+
+  async function listen(): Promise<void> {
+    const client = await loadClient();
+    if (isDisposed || stopListening) return;
+    stopListening = client.onResourceChanged((message) => {
+      if (message.type !== 'access:answered' || !canHear()) return;
+      void showAnswer(message.id).catch(() => undefined);
+    });
+    client.start();
+  }
+
+  const stopWatch = watch(canHear, (can) => {
+    if (can && !stopListening) void listen().catch(() => undefined);
+  }, { immediate: true });
   onScopeDispose(() => {
+    isDisposed = true;
     stopWatch();
-    stopListening();
+    stopListening?.();
   });
 }
