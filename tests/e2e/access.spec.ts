@@ -134,6 +134,8 @@ test.describe('access bookings', () => {
     }
     if (phone) await expect(section.getByTestId('access-dates')).toContainText(`down ${plainDay(newStrike!)}`);
     expect(await page.evaluate(() => (window as unknown as { notReloaded?: boolean }).notReloaded)).toBe(true);
+    // The office is told on whatever page is open, since the answer comes from outside the firm.
+    await expect(page.getByText(/accepted the new dates/).first()).toBeVisible();
     await shot(page, phone ? 'access-job-after-answer' : 'access-board-after-answer');
 
     if (!phone) await page.goto(`/jobs/${setup.job.id}`);
