@@ -1,5 +1,4 @@
 import { TZDate } from '@date-fns/tz';
-import { format } from 'date-fns';
 
 /** A plain calendar date, `YYYY-MM-DD`, read in the calendar's own time zone. */
 export type IsoDate = string;
@@ -235,13 +234,17 @@ export function zonedTimeToInstant(date: IsoDate, hhmm: string, timeZone: string
 export const MS_PER_DAY = DAY_MS;
 export const MS_PER_HOUR = 3_600_000;
 
+const WEEKDAY_NAMES = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'] as const;
+const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const;
+
 /**
- * A calendar date as people read it in a message, e.g. "Wed 26 May", worded as the web app words it (date-fns
- * "EEE d MMM"). Built from the date's own parts, so no time zone can shift it.
+ * A calendar date as people read it in a message, e.g. "Wed 26 May": the words the web app's date-fns "EEE d MMM"
+ * gives, from the date's own day number, so no time zone can shift it and no formatting library is needed here.
  */
 export function shortDayLabel(date: IsoDate): string {
-  const { year, month, day } = civilFromDays(parseIsoDate(date));
-  return format(new Date(year, month - 1, day, 12), 'EEE d MMM');
+  const z = parseIsoDate(date);
+  const { month, day } = civilFromDays(z);
+  return `${WEEKDAY_NAMES[isoWeekdayOfDay(z) - 1]} ${day} ${MONTH_NAMES[month - 1]}`;
 }
 
 /** A run of dates as "Mon 30 Nov to Thu 3 Dec", or one day's label when it starts and ends on the same day. */
