@@ -19,7 +19,7 @@ describe('demo firm seed', () => {
     expect(await seedDemoFirm(dataSource, TODAY)).toEqual({ created: true });
     const first = await countRows(dataSource);
     expect(first).toMatchObject({
-      firm: 1, app_user: DEMO_SIGN_INS.length + 6, crew: 4, client: 12, site: 12, job: 40, quote: 2,
+      firm: 1, app_user: DEMO_SIGN_INS.length + 6, crew: 4, client: 12, site: 12, job: 40, quote: 3,
       supplier: 2, access_booking: 5, scaffold_inspection: 3, access_change_request: 0,
     });
 
@@ -41,6 +41,6 @@ describe('demo firm seed', () => {
     expect(total(await countRows(dataSource))).toBe(0);
 
     expect(await seedDemoFirm(dataSource, TODAY)).toEqual({ created: true });
-    expect(await countRows(dataSource)).toMatchObject({ firm: 1, job: 40, quote: 2 });
+    expect(await countRows(dataSource)).toMatchObject({ firm: 1, job: 40, quote: 3 });
   });
 });

@@ -196,7 +196,7 @@ async function seedInto(dataSource: DataSource, passwordHash: string, today: str
   await seedDemoAccess(dataSource, actor, {
     erectedScaffold: job('J0001'), erectedScaffoldToo: job('J0002'), erectedTower: job('J0004'), confirmedScaffold: job('J0013'), requestedScaffold: job('J0010'),
   });
-  await seedDemoQuotes(dataSource, actor, { sent: base.jobs[36]!, draft: base.jobs[38]! });
+  await seedDemoQuotes(dataSource, actor, { accepted: job('J0001'), sent: base.jobs[36]!, draft: base.jobs[38]! });
 }
 
 /** A few notes on the Stack crew's first jobs, as a crew's phone would have left them. */

@@ -7,6 +7,7 @@ import type { Actor } from '../services/actor.js';
 import { CostingSettingsService } from '../services/costing-settings-service.js';
 import { MaterialService } from '../services/material-service.js';
 import { PaymentService } from '../services/payment-service.js';
+import type { MailMessage } from '../services/mailer.js';
 import { QuoteService } from '../services/quote-service.js';
 
 /** An invented firm's running costs and price list; the prices are plausible, not anyone's real figures. */
@@ -89,17 +90,37 @@ const STACK: QuoteContentInput = {
   brickCalc: null,
 };
 
-/** Costing settings, a price list and two quotes (one with the client, one still a draft) for the demo firm. */
-export async function seedDemoQuotes(dataSource: DataSource, actor: Actor, jobs: { sent: Job; draft: Job }, clock: Clock = () => new Date()): Promise<void> {
+/** The stack job under way this week, priced for its four days on site and the scaffold's two weeks. */
+const STACK_UNDER_WAY: QuoteContentInput = {
+  ...STACK,
+  labour: [{ description: 'Bricklayer', people: 2, days: 4, dayRatePence: 23_000 }],
+  jobDays: 4,
+};
+
+/**
+ * Costing settings, a price list and three quotes for the demo firm: one accepted for the job under way (so the margins
+ * report has a job to show), one with the client, one still a draft.
+ */
+export async function seedDemoQuotes(
+  dataSource: DataSource, actor: Actor, jobs: { accepted: Job; sent: Job; draft: Job }, clock: Clock = () => new Date(),
+): Promise<void> {
   const events = new EventBus();
   const costing = new CostingSettingsService(dataSource, events);
   await costing.update(actor, { ...DEMO_SETTINGS, version: 0 });
   const materials = new MaterialService(dataSource, events);
   for (const m of DEMO_MATERIALS) await materials.create(actor, materialInputSchema.parse(m));
-  // The seed sends no mail: the client's link is made but only ever shown in a real send.
-  const quotes = new QuoteService(dataSource, { send: async () => undefined }, clock, events, costing, new PaymentService(dataSource, clock, events, undefined), {
+  // The seed sends no mail: the client's link is made but only ever shown in a real send, or followed here to accept.
+  let lastLink: string | null = null;
+  const keepLink = async (message: MailMessage) => {
+    lastLink = /\/q\/([\w-]+)/.exec(message.text)?.[1] ?? lastLink;
+  };
+  const quotes = new QuoteService(dataSource, { send: keepLink }, clock, events, costing, new PaymentService(dataSource, clock, events, undefined), {
     appUrl: 'http://localhost:3000',
   });
+  const accepted = await quotes.create(actor, { jobId: jobs.accepted.id, content: quoteContentSchema.parse(STACK_UNDER_WAY) });
+  await quotes.send(actor, accepted.id, { version: accepted.version });
+  if (!lastLink) throw new Error('the demo quote was sent without a client link');
+  await quotes.accept(lastLink, { name: 'Helen Ashdown' }, '127.0.0.1');
   const sent = await quotes.create(actor, { jobId: jobs.sent.id, content: quoteContentSchema.parse(GARDEN_WALL) });
   await quotes.send(actor, sent.id, { version: sent.version });
   await quotes.create(actor, { jobId: jobs.draft.id, content: quoteContentSchema.parse(STACK) });
