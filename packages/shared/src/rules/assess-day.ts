@@ -3,7 +3,7 @@ import { activities, heightActivities, mortarActivities, mortarKinds, type Activ
 import { checkConcreteColdWeather, checkConcreteFreezing, checkUkConcreteDischarge } from './concrete-rules.js';
 import { parseInstant, type IsoInstant } from './dates.js';
 import {
-  blockedBuffer, buildContext, fmt, forecastHourSchema, type AssessmentNote, type ForecastHour, type HourContext, type RuleReason, type Verdict,
+  blockedBuffer, buildContext, fmt, forecastHourSchema, usableHoursShown, type AssessmentNote, type ForecastHour, type HourContext, type RuleReason, type Verdict,
 } from './forecast.js';
 import {
   checkFrostProtection,
@@ -178,7 +178,7 @@ function assessActivity(ctx: HourContext, activity: Activity, mortar: MortarKind
       observed: usable,
       at: null,
       hours: 0,
-      message: `Only ${fmt(Math.floor(usable * 10 + 1e-9) / 10)} usable h of ${fmt(ctx.windowHours)} in the working window, fewer than the ${fmt(needed)} h the firm needs to start.`,
+      message: `Only ${fmt(usableHoursShown(usable))} usable h of ${fmt(ctx.windowHours)} in the working window, fewer than the ${fmt(needed)} h the firm needs to start.`,
       source: SOURCES.usableHours,
     });
   }

@@ -59,15 +59,15 @@ export class WeatherService {
     this.access = access;
   }
 
-  /**
-   * The verdict of each placed job-day that has a forecast: the job's activities assessed over the firm's
-   * working hours cut to daylight at the site. Days past the forecast have no entry.
-   */
   /** Today in the firm's time zone, by this service's clock. */
   todayFor(calendars: FirmCalendars): string {
     return todayIn(calendars.timeZone, this.clock());
   }
 
+  /**
+   * The verdict of each placed job-day that has a forecast: the job's activities assessed over the firm's
+   * working hours cut to daylight at the site. Days past the forecast have no entry.
+   */
   async dayVerdicts(
     manager: EntityManager, firmId: string, assignments: PlacedAssignment[], calendars: FirmCalendars, siteOfJob?: Map<string, string>,
   ): Promise<DayWeatherDto[]> {
@@ -590,7 +590,6 @@ function planKeyOf(plan: Pick<ReplanPreviewDto, 'mode' | 'moves' | 'accessChange
   ]);
   return createHash('sha256').update(canonical).digest('base64url');
 }
-
 
 function toLimitsDto(row: FirmWeatherLimits | null): WeatherLimitsDto {
   const { settings, overrides, ignored } = firmRuleSettings(row?.overrides);
