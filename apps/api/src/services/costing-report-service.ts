@@ -12,10 +12,10 @@ import {
 import { AccessBooking, Assignment, AuditEvent, Firm, Job, JobActual, Quote, QuoteVersion, WeatherHold } from '../entities/index.js';
 import { errors } from '../errors.js';
 import type { EventBus } from '../lib/event-bus.js';
+import { todayIn } from '../lib/today.js';
 import { requirePermission, type Actor } from './actor.js';
 import { recordAudit } from './audit-service.js';
 import { assertVersion, FirmScope } from './firm-scope.js';
-import { todayIn } from './quote-service.js';
 import type { WeatherService } from './weather/weather-service.js';
 
 type ActualValues = {

@@ -24,6 +24,7 @@ import { errors } from '../errors.js';
 import type { Clock } from '../lib/clock.js';
 import type { EventBus } from '../lib/event-bus.js';
 import { hashToken, newOpaqueToken } from '../lib/tokens.js';
+import { todayIn } from '../lib/today.js';
 import { requirePermission, type Actor } from './actor.js';
 import { recordAudit, snapshot } from './audit-service.js';
 import type { CostingSettingsService } from './costing-settings-service.js';
@@ -469,10 +470,6 @@ async function clientAudit(
     before: snapshot(change.before ?? null),
     after: snapshot(change.after ?? null),
   }));
-}
-
-export function todayIn(timeZone: string, at: Date): string {
-  return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(at);
 }
 
 function addDays(isoDate: string, days: number): string {
