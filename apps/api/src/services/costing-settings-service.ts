@@ -1,5 +1,5 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import type { CostingSettings, CostingSettingsDto } from '@hodboard/shared';
+import { defaultVatRatePct, type CostingSettings, type CostingSettingsDto } from '@hodboard/shared';
 import { CostingSettingsRow } from '../entities/index.js';
 import type { EventBus } from '../lib/event-bus.js';
 import { requirePermission, type Actor } from './actor.js';
@@ -23,7 +23,7 @@ export const defaultCostingSettings: CostingSettings = {
   labourRates: [],
   defaultMarginPct: 15,
   vatRegistered: false,
-  vatRatePct: 20,
+  vatRatePct: defaultVatRatePct,
   quoteValidityDays: 30,
   paymentTerms: 'Balance due within 14 days of completion.',
   depositPct: 0,

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { priceJob, priceJobInputSchema, type PriceJobInput } from './costing.js';
+import { defaultVatRatePct, priceJob, priceJobInputSchema, type PriceJobInput } from './costing.js';
 
 // An invented garden-wall job for an invented firm, worked by hand below.
 const wallJob: PriceJobInput = {
@@ -63,6 +63,11 @@ describe('priceJob', () => {
     expect(p.totals.costPence).toBe(270_686 - 6_475 + 9_250);
     expect(priceJob({ ...wallJob, travelDays: 0 }).lines.some((l) => l.kind === 'travel')).toBe(false);
     expect(priceJob({ ...wallJob, travelDays: 3.5 })).toEqual(priceJob(wallJob));
+  });
+
+  // Source: GOV.UK, "VAT rates" (gov.uk/vat-rates): the standard rate is 20 %, in force since 4 January 2011.
+  it('starts a new firm on the UK standard rate of VAT', () => {
+    expect(defaultVatRatePct).toBe(20);
   });
 
   it('charges no VAT when the firm is not registered', () => {
