@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # npm test (and .ci/run): bootstrap like npm start, but into throwaway databases, then run
-# type checks, unit tests, API tests against real PostgreSQL, and browser tests in Debian's
+# type checks, lint, unit tests, API tests against real PostgreSQL, and browser tests in Debian's
 # Chromium. Ends with one line "N passed, N failed[, N skipped]" summing every runner.
 set -euo pipefail
 
@@ -159,7 +159,7 @@ counted() {
 
 not_run() { record "$1" 0 0 0 - "not run: $2"; }
 
-# While working on one part: HB_ONLY="api e2e" runs only those steps (typecheck, shared, web, api, e2e), and
+# While working on one part: HB_ONLY="api e2e" runs only those steps (typecheck, lint, shared, web, api, e2e), and
 # HB_E2E_ARGS passes Playwright a spec or a --grep. CI sets neither and runs everything.
 wanted() { [ -z "${HB_ONLY:-}" ] || [[ " $HB_ONLY " == *" $1 "* ]]; }
 
@@ -171,6 +171,7 @@ run_vitest() {
 }
 
 if wanted typecheck; then check "typecheck" pnpm typecheck || true; fi
+if wanted lint; then check "lint" pnpm lint || true; fi
 if wanted shared; then run_vitest "unit: shared" @hodboard/shared || true; fi
 if wanted web; then run_vitest "unit: web" @hodboard/web || true; fi
 if wanted api; then run_vitest "api" @hodboard/api || true; fi

@@ -25,7 +25,7 @@ export const oddStrings = [
   '\r\n\t',
 ];
 
-export const oddNumbers = [-1, -0.5, 0, 0.5, 1.5, -2147483649, 2147483648, 9_007_199_254_740_993, 1e308, -1e308, Number.MIN_VALUE];
+export const oddNumbers = [-1, -0.5, 0, 0.5, 1.5, -2147483649, 2147483648, Number.MAX_SAFE_INTEGER + 1, 1e308, -1e308, Number.MIN_VALUE];
 
 // Shaped like dates, but no such day, or far outside any diary.
 export const oddDates = ['2027-02-30', '2027-02-29', '2027-13-01', '2027-00-10', '0000-01-01', '99999-01-01', '2027-1-1', '2027/03/01', '1900-01-01', '9999-12-31', '2027-03-01T25:00:00Z', 'tomorrow'];

@@ -51,7 +51,8 @@ export class ForecastService {
     let refreshed = 0;
     let failed = 0;
     for (const site of await this.sitesWithUpcomingWork(firmId)) {
-      (await this.refreshSite(site)) ? (refreshed += 1) : (failed += 1);
+      if (await this.refreshSite(site)) refreshed += 1;
+      else failed += 1;
     }
     return { refreshed, failed };
   }
