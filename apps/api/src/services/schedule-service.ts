@@ -1,8 +1,9 @@
-import { In, MoreThan, type DataSource, type EntityManager } from 'typeorm';
+import { In, type DataSource, type EntityManager } from 'typeorm';
 import { queriesOf } from '../lib/queries-of.js';
 import {
   can,
   doubleBookedDays,
+  SCHEDULE_CHANGES_PAGE,
   scheduleConflicts,
   spanFor,
   type AssignmentDto,
@@ -270,15 +271,15 @@ export class ScheduleService {
 
   async eventsSince(actor: Actor, afterEventId: number): Promise<ScheduleEventDto[]> {
     requirePermission(actor, 'jobs:read');
-    const rows = await new FirmScope(this.dataSource.manager, actor.firmId).find(ScheduleEvent, {
-      where: { id: MoreThan(String(afterEventId)) },
-      order: { id: 'ASC' },
-      take: 500,
-    });
-    const isOffice = can(actor.role, 'jobs:manage');
-    return rows
-      .filter((row) => isOffice || row.crewIds.some((id) => actor.crewIds.includes(id)))
-      .map((row) => ({ id: Number(row.id), type: row.type, payload: row.payload as unknown as ScheduleChangeDto }));
+    const query = new FirmScope(this.dataSource.manager, actor.firmId)
+      .query(ScheduleEvent, 'e')
+      .andWhere('e.id > :afterEventId', { afterEventId: String(afterEventId) })
+      .orderBy('e.id', 'ASC')
+      .take(SCHEDULE_CHANGES_PAGE);
+    // Crew roles get only their crews' changes, filtered before the page is cut so a full page means more may follow.
+    if (!can(actor.role, 'jobs:manage')) query.andWhere('e.crew_ids && :crewIds::uuid[]', { crewIds: actor.crewIds });
+    const rows = await query.getMany();
+    return rows.map((row) => ({ id: Number(row.id), type: row.type, payload: row.payload as unknown as ScheduleChangeDto }));
   }
 
   /**

@@ -26,6 +26,9 @@ export function useBoardLive(): BoardLive {
   const session = useSessionStore();
   const lastRemoteChange = ref('');
   let reloadTimer: ReturnType<typeof setTimeout> | undefined;
+  // Leave, crews and job details come only as live notices, never replayed: a board that lost its connection reads
+  // itself again once back, after replaying the schedule changes.
+  let wasAway = false;
 
   const stops = [
     realtime.onScheduleChanged((message) => {
@@ -33,8 +36,13 @@ export function useBoardLive(): BoardLive {
       if (applied && message.change.actorName !== session.user?.name) lastRemoteChange.value = describe(message);
     }),
     realtime.onConnected(() => {
+      const missedNotices = wasAway;
+      wasAway = false;
       if (!store.range || store.isLoading) return;
-      store.catchUp().catch(() => store.reload());
+      store
+        .catchUp()
+        .then(() => (missedNotices ? store.reload() : undefined))
+        .catch(() => store.reload());
     }),
     realtime.onResourceChanged((message) => {
       if (!reloadingTypes.test(message.type)) return;
@@ -43,6 +51,10 @@ export function useBoardLive(): BoardLive {
       reloadTimer = setTimeout(() => void store.reload(), 400);
     }),
   ];
+
+  watch(realtime.status, (status, before) => {
+    if (before === 'live' && status !== 'live') wasAway = true;
+  });
 
   watch(
     () => session.isSignedIn,

@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { createPinia, setActivePinia } from 'pinia';
-import type { AssignmentDto, BoardDto, BoardJobDto, ConflictDto, JobPriority, ScheduleChangeDto } from '@hodboard/shared';
+import { SCHEDULE_CHANGES_PAGE, type AssignmentDto, type BoardDto, type BoardJobDto, type ConflictDto, type JobPriority, type ScheduleChangeDto } from '@hodboard/shared';
 import { ApiError } from '@/api/http';
 
 const api = vi.hoisted(() => ({
@@ -273,5 +273,21 @@ describe('catchUp', () => {
     expect(api.getBoardChanges).toHaveBeenCalledWith(40);
     expect(store.assignments['as-1']?.days).toEqual(['2027-03-11']);
     expect(store.lastEventId).toBe(42);
+  });
+
+  it('keeps asking after the last change while the answers come back as full pages', async () => {
+    const store = await loaded();
+    const moveTo = (id: number, day: string) => ({
+      id, type: 'assignment:moved', payload: change({ assignment: assignment('as-1', 'job-1', crewA, [day], id), job: job('job-1', 'J0001') }),
+    });
+    const fullPage = Array.from({ length: SCHEDULE_CHANGES_PAGE }, (_, i) => moveTo(41 + i, '2027-03-09'));
+    const lastOfPage = 40 + SCHEDULE_CHANGES_PAGE;
+    api.getBoardChanges.mockResolvedValueOnce(fullPage).mockResolvedValueOnce([moveTo(lastOfPage + 1, '2027-03-12')]);
+
+    await store.catchUp();
+
+    expect(api.getBoardChanges.mock.calls).toEqual([[40], [lastOfPage]]);
+    expect(store.assignments['as-1']?.days).toEqual(['2027-03-12']);
+    expect(store.lastEventId).toBe(lastOfPage + 1);
   });
 });

@@ -12,6 +12,7 @@ import {
   type ConflictKind,
   type JobPriority,
   type ScheduleChangeDto,
+  SCHEDULE_CHANGES_PAGE,
 } from '@hodboard/shared';
 import * as boardApi from '@/api/board';
 import { isApiError } from '@/api/http';
@@ -278,11 +279,16 @@ export const useScheduleStore = defineStore('schedule', () => {
     return range.value ? load(range.value, { quiet: true }) : Promise.resolve();
   }
 
-  /** Asks for every change after the last one applied; a socket that was away misses nothing. */
+  /** Asks for every change after the last one applied, a page at a time; a socket that was away misses nothing. */
   async function catchUp(): Promise<void> {
     if (!range.value) return;
-    const events = await boardApi.getBoardChanges(lastEventId.value);
-    for (const event of events) applyEvent(event.payload, event.id);
+    for (;;) {
+      const after = lastEventId.value;
+      const events = await boardApi.getBoardChanges(after);
+      for (const event of events) applyEvent(event.payload, event.id);
+      // A short page is the last; so is one that moved nothing on (a board read meanwhile may have passed it).
+      if (events.length < SCHEDULE_CHANGES_PAGE || lastEventId.value === after) return;
+    }
   }
 
   async function saving<T>(id: string, task: () => Promise<T>): Promise<T> {

@@ -2,3 +2,4 @@ export * from './conflicts.js';
 export * from './time-off-rule.js';
 export * from './job-activities.js';
 export * from './replan.js';
+export * from './changes.js';
