@@ -102,9 +102,9 @@ export function inviteTokenFrom(mailer: MemoryMailer, email: string, path = 'acc
   return decodeURIComponent(match[1]);
 }
 
-/** A firm with one of everything, for sweeps across resources. */
-export async function populateFirm(harness: Harness, owner: SignedIn) {
-  const client = await request(harness.app).post('/api/clients').set(owner.auth).send({ name: 'Marsh End Farm', contacts: [{ email: 'farm@example.org' }] }).expect(201);
+/** A firm with one of everything, for sweeps across resources; a client name of its own tells two such firms apart. */
+export async function populateFirm(harness: Harness, owner: SignedIn, clientName = 'Marsh End Farm') {
+  const client = await request(harness.app).post('/api/clients').set(owner.auth).send({ name: clientName, contacts: [{ email: 'farm@example.org' }] }).expect(201);
   const site = await request(harness.app)
     .post('/api/sites')
     .set(owner.auth)

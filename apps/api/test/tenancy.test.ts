@@ -1,11 +1,18 @@
 import request from 'supertest';
+import fc from 'fast-check';
 import sharp from 'sharp';
+import type { ZodType } from 'zod';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { listResourceRoutes } from '../src/app.js';
+import { listResourceRoutes, type RouteInfo } from '../src/app.js';
 import { addPerson, countRows, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 import { quoteFixture } from './quotes-helpers.js';
+import { arbitraryOf, fieldsOf } from './proof/zod-arbitrary.js';
 
 type Ids = Awaited<ReturnType<typeof populateFirm>>;
+
+// Names only firm B has, so a body that shows one of them shows firm B's data.
+const FIRM_B_NAME = 'Birch Builders';
+const FIRM_B_CLIENT = 'Quillet Hollow Farm';
 
 let h: Harness;
 let firmA: Record<string, SignedIn>;
@@ -21,9 +28,9 @@ beforeAll(async () => {
   h = await createHarness();
   await truncateAll(h.dataSource);
   const ownerA = await signUpFirm(h, 'Alder Masonry', 'owner@alder.example');
-  ownerB = await signUpFirm(h, 'Birch Builders', 'owner@birch.example');
+  ownerB = await signUpFirm(h, FIRM_B_NAME, 'owner@birch.example');
   idsA = await populateFirm(h, ownerA);
-  idsB = await populateFirm(h, ownerB);
+  idsB = await populateFirm(h, ownerB, FIRM_B_CLIENT);
   const jpeg = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#777' } }).jpeg().toBuffer();
   crewPhoneB = {
     photoId: (await request(h.app).post('/api/photos').set(ownerB.auth).field('jobId', idsB.jobId).attach('photo', jpeg, 'b.jpg').expect(201)).body.id,
@@ -48,6 +55,68 @@ beforeAll(async () => {
 afterAll(async () => {
   await h.dataSource.destroy();
 });
+
+/** Every id and unique name of firm B's: none may appear in anything firm A is answered. */
+function firmBMarks(): string[] {
+  return [
+    ...Object.values(idsB), quotesB.quoteId, quotesB.materialId, crewPhoneB.photoId, crewPhoneB.feedId, holdB, inspectionB,
+    ownerB.session.firm.id, ownerB.session.user.id, FIRM_B_NAME, FIRM_B_CLIENT,
+  ];
+}
+
+function expectNoFirmBData(body: unknown, what: string): void {
+  const text = JSON.stringify(body);
+  expect(firmBMarks().filter((mark) => text.includes(mark)), what).toEqual([]);
+}
+
+/** Firm B's id for a query field named after what it points at (`crewId`, `jobIds`); a new name fails the sweep until added. */
+function foreignIdFor(key: string): string {
+  const byName: Record<string, string> = {
+    ...Object.fromEntries(Object.entries(idsB).map(([name, id]) => [name, id])),
+    quoteId: quotesB.quoteId, materialId: quotesB.materialId, photoId: crewPhoneB.photoId, holdId: holdB, inspectionId: inspectionB,
+  };
+  const id = byName[`${key.replace(/Ids?$/, '')}Id`];
+  if (!id) throw new Error(`The sweep has no firm B id for the query field ${key}; add one`);
+  return id;
+}
+
+const isIdField = (field: { key: string; kind: string }) => field.kind === 'id' || /Ids?$/.test(field.key);
+
+// The window of firm B's rows: its job is placed from 2027-03-01 and its leave is on 2027-04-09.
+const WINDOW = { start: '2027-02-22', end: '2027-04-30' };
+
+/** A value the field accepts that reaches firm B's rows if anything does: the dates around them, else any valid sample. */
+function sampleFor(key: string, schema: ZodType): unknown {
+  const date = key === 'to' || /To$|Until$/.test(key) ? WINDOW.end : WINDOW.start;
+  const candidates = [date, date.slice(0, 7), ...fc.sample(arbitraryOf(schema, { ids: [] }), { numRuns: 20, seed: 2027 })];
+  const found = candidates.find((candidate) => schema.safeParse(candidate).success);
+  if (found === undefined) throw new Error(`no valid sample for the query field ${key}`);
+  return found;
+}
+
+/**
+ * The queries a collection route is swept with: the required fields filled in, then each id-like field in turn
+ * given firm B's id. Read from the route's shared schema, so a new route or field is swept without editing this list.
+ */
+function foreignQueries(route: RouteInfo): Array<Record<string, unknown>> {
+  const schema = route.spec?.query;
+  if (!schema) return [{}];
+  const fields = fieldsOf(schema);
+  const idFields = fields.filter(isIdField);
+  // Event ids are one sequence across firms: a feed read from the very start would carry firm B's events if it leaked any.
+  const foreignValue = (field: { key: string; kind: string }) => (field.kind === 'number' ? 0 : foreignIdFor(field.key));
+  const base: Record<string, unknown> = {};
+  // Only what the route cannot do without: a default (page 1, 25 a page) already reaches firm B's rows if anything does.
+  for (const field of fields.filter((f) => !f.schema.safeParse(undefined).success)) {
+    base[field.key] = isIdField(field) ? foreignValue(field) : sampleFor(field.key, field.schema);
+  }
+  const queries = idFields.length ? idFields.map((field) => ({ ...base, [field.key]: foreignValue(field) })) : [base];
+  for (const query of queries) {
+    const parsed = schema.safeParse(query);
+    if (!parsed.success) throw new Error(`${route.method} ${route.path}: the sweep built an invalid query ${JSON.stringify(query)}`);
+  }
+  return queries;
+}
 
 /** Which of firm B's ids each id route is probed with, and a body valid apart from the foreign ids. */
 function probeFor(method: string, path: string): { url: string; body?: object } | null {
@@ -107,18 +176,14 @@ const foreignCreates = () => [
 describe('firm isolation', () => {
   it('covers every resource route in this sweep', () => {
     const routes = listResourceRoutes(h.services);
-    const collection = new Set(['GET /api/crew-days', 'GET /api/site-notes', 'POST /api/site-notes', 'GET /api/photos', 'POST /api/photos',
-      'GET /api/photos/settings', 'PUT /api/photos/settings', 'GET /api/calendar-feeds', 'POST /api/calendar-feeds',
-      'GET /api/push/config', 'POST /api/push/subscriptions', 'POST /api/push/subscriptions/remove',
-      'GET /api/quotes', 'POST /api/quotes', 'GET /api/materials', 'POST /api/materials',
-      'GET /api/materials/export', 'POST /api/materials/import', 'GET /api/costing/settings', 'PUT /api/costing/settings', 'GET /api/costing/report',
-      'GET /api/people', 'POST /api/people/invite', 'GET /api/crews', 'POST /api/crews', 'GET /api/clients',
-      'POST /api/clients', 'GET /api/sites', 'POST /api/sites', 'GET /api/jobs', 'POST /api/jobs', 'GET /api/firm', 'PUT /api/firm',
-      'GET /api/board', 'GET /api/board/changes', 'POST /api/assignments', 'GET /api/time-off', 'POST /api/time-off',
-      'GET /api/suppliers', 'POST /api/suppliers', 'GET /api/access-bookings', 'POST /api/access-bookings', 'GET /api/access-bookings/quoted-weeks',
-      'GET /api/weather-holds', 'POST /api/weather-holds', 'GET /api/weather-holds/summary', 'GET /api/weather/outlook', 'POST /api/weather/refresh',
-      'GET /api/weather/limits', 'PUT /api/weather/limits']);
-    const uncovered = routes.filter((route) => !route.path.includes(':id') && !collection.has(`${route.method} ${route.path}`));
+    // Collection reads are swept through their query strings below; these writes are probed by the creates that follow.
+    const collection = new Set(['POST /api/site-notes', 'POST /api/photos', 'PUT /api/photos/settings',
+      'POST /api/calendar-feeds', 'POST /api/push/subscriptions', 'POST /api/push/subscriptions/remove', 'POST /api/quotes',
+      'POST /api/materials', 'POST /api/materials/import', 'PUT /api/costing/settings', 'POST /api/people/invite',
+      'POST /api/crews', 'POST /api/clients', 'POST /api/sites', 'POST /api/jobs', 'PUT /api/firm', 'POST /api/assignments',
+      'POST /api/time-off', 'POST /api/suppliers', 'POST /api/access-bookings', 'POST /api/weather-holds',
+      'POST /api/weather/refresh', 'PUT /api/weather/limits']);
+    const uncovered = routes.filter((route) => !route.path.includes(':id') && route.method !== 'GET' && !collection.has(`${route.method} ${route.path}`));
     expect(uncovered).toEqual([]);
     expect(routes.filter((route) => route.path.includes(':id')).length).toBeGreaterThanOrEqual(14);
   });
@@ -132,7 +197,7 @@ describe('firm isolation', () => {
       const res = await request(h.app)[route.method.toLowerCase() as 'get'](probe.url).set(actor.auth).send(probe.body);
       expect([403, 404], `${role} ${route.method} ${probe.url} → ${res.status}`).toContain(res.status);
       expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
-      expect(JSON.stringify(res.body)).not.toContain('Marsh End');
+      expectNoFirmBData(res.body, `${role} ${route.method} ${probe.url}`);
     }
     for (const create of foreignCreates()) {
       const res = await request(h.app).post(create.url).set(actor.auth).send(create.body);
@@ -143,6 +208,39 @@ describe('firm isolation', () => {
     expect(await countRows(h.dataSource)).toEqual(before);
   });
 
+  it('derives the query sweep from the shared schemas, reaching every id-like field the audit named', () => {
+    const collectionGets = listResourceRoutes(h.services).filter((route) => route.method === 'GET' && !route.path.includes(':'));
+    const swept = collectionGets.flatMap((route) => foreignQueries(route).map((query) => `${route.path}?${Object.keys(query).sort().join('&')}`));
+    // A few the audit named, to show the derivation reaches them; the sweep itself covers every route it finds.
+    expect(swept).toEqual(expect.arrayContaining([
+      '/api/board?crewId&from&to', '/api/jobs?clientId', '/api/jobs?crewId', '/api/sites?clientId', '/api/site-notes?jobId',
+      '/api/photos?jobId', '/api/weather-holds?jobId', '/api/access-bookings/quoted-weeks?accessType&jobIds', '/api/board/changes?afterEventId',
+      '/api/crew-days?', '/api/costing/report?from&to',
+    ]));
+  });
+
+  it.each(['owner', 'office', 'crew-lead', 'operative'])(
+    "gives a %s of firm A 403/404, or none of firm B's data, on every collection read with firm B's ids in the query",
+    async (role) => {
+      const actor = firmA[role]!;
+      const before = await countRows(h.dataSource);
+      let answered = 0;
+      for (const route of listResourceRoutes(h.services).filter((r) => r.method === 'GET' && !r.path.includes(':'))) {
+        for (const query of foreignQueries(route)) {
+          const res = await request(h.app).get(route.path).query(query).set(actor.auth);
+          const what = `${role} GET ${route.path}?${new URLSearchParams(query as Record<string, string>)} → ${res.status}`;
+          expect([200, 403, 404], what).toContain(res.status);
+          if (res.status === 200) answered += 1;
+          else expect(res.headers['content-type'], what).toMatch(/application\/problem\+json/);
+          expectNoFirmBData(res.type === 'application/json' || res.type === 'application/problem+json' ? res.body : res.text, what);
+        }
+      }
+      // Every role reads some collections, so the "no firm B data" side of the sweep is exercised too.
+      expect(answered).toBeGreaterThan(0);
+      expect(await countRows(h.dataSource)).toEqual(before);
+    },
+  );
+
   it.each(['/api/quotes', '/api/materials', '/api/people', '/api/crews', '/api/clients', '/api/sites', '/api/jobs', '/api/time-off', '/api/suppliers', '/api/access-bookings', '/api/weather-holds', '/api/board?from=2027-02-22&to=2027-03-12'])('lists only firm A rows at %s', async (url) => {
     const res = await request(h.app).get(url).set(firmA.owner!.auth).expect(200);
     const body = res.body as { items?: Array<{ id: string }>; assignments?: Array<{ id: string }>; crews?: Array<{ id: string }> };
@@ -150,6 +248,7 @@ describe('firm isolation', () => {
     expect(items.length).toBeGreaterThan(0);
     const foreign = new Set([...Object.values(idsB), quotesB.quoteId, quotesB.materialId]);
     expect(items.filter((item) => foreign.has(item.id))).toEqual([]);
+    expectNoFirmBData(res.body, url);
   });
 
   it("leaves firm B's settings alone when firm A saves its own", async () => {

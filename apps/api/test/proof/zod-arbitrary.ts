@@ -168,11 +168,11 @@ export function arbitraryOf(schema: ZodType, context: ArbitraryContext): fc.Arbi
 export type FieldKind = 'string' | 'date' | 'id' | 'number' | 'boolean' | 'enum' | 'array' | 'object' | 'other';
 
 /** The top-level fields of an object-like schema, with what kind of value each expects. */
-export function fieldsOf(schema: ZodType): Array<{ key: string; kind: FieldKind; isRequired: boolean }> {
+export function fieldsOf(schema: ZodType): Array<{ key: string; kind: FieldKind; isRequired: boolean; schema: ZodType }> {
   const object = unwrapToObject(schema);
   if (!object) return [];
   const shape = defOf(object).shape as Record<string, ZodType>;
-  return Object.entries(shape).map(([key, field]) => ({ key, kind: kindOf(field), isRequired: !isOptionalKey(field) }));
+  return Object.entries(shape).map(([key, field]) => ({ key, kind: kindOf(field), isRequired: !isOptionalKey(field), schema: field }));
 }
 
 function unwrapToObject(schema: ZodType): ZodType | null {
