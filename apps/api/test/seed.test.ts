@@ -1,5 +1,8 @@
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import type { DataSource } from 'typeorm';
 import { DEMO_SIGN_INS, seedDemoFirm } from '../src/db/demo-firm.js';
+import { EventBus } from '../src/lib/event-bus.js';
+import { ScheduleService } from '../src/services/schedule-service.js';
 import { countRows, testDataSource, truncateAll } from './harness.js';
 
 const TODAY = '2027-03-10';
@@ -43,4 +46,43 @@ describe('demo firm seed', () => {
     expect(await seedDemoFirm(dataSource, TODAY)).toEqual({ created: true });
     expect(await countRows(dataSource)).toMatchObject({ firm: 1, job: 40, quote: 3 });
   });
+
+  it('shows a newcomer a living six weeks: leave, a firm closure, a bank holiday skipped and the deliberate conflicts', async () => {
+    const dataSource = await testDataSource();
+    await seedDemoFirm(dataSource, TODAY);
+    const board = await ownersBoard(dataSource, '2027-03-08', '2027-04-18');
+
+    expect(board.assignments.length).toBeGreaterThanOrEqual(30);
+    expect(board.crews).toHaveLength(4);
+    expect(board.crews.some((crew) => crew.leave.length > 0)).toBe(true);
+    expect(board.crews.some((crew) => crew.memberLeave.length > 0)).toBe(true);
+    // Source: GOV.UK, "Bank holidays" (gov.uk/bank-holidays), England and Wales 2027: Good Friday 26 March, Easter
+    // Monday 29 March. The training day is the demo firm's own closure.
+    expect(board.days.filter((day) => day.offReason && day.offReason !== 'Weekend').map((day) => [day.date, day.offReason])).toEqual([
+      ['2027-03-26', 'Good Friday'], ['2027-03-29', 'Easter Monday'], ['2027-04-01', 'Firm training day'],
+    ]);
+    expect(board.assignments.some((a) => a.days[0]! < '2027-03-26' && a.days.at(-1)! > '2027-03-29' && !a.days.includes('2027-03-26'))).toBe(true);
+    expect(new Set(board.conflicts.map((conflict) => conflict.kind))).toEqual(new Set(['double-booked', 'member-on-leave', 'before-earliest-start']));
+  });
+
+  it('books a job over the next bank holiday when none falls in the six weeks', async () => {
+    const dataSource = await testDataSource();
+    // Six weeks from Monday 7 June 2027 hold no bank holiday; the next is the summer one.
+    await seedDemoFirm(dataSource, '2027-06-09');
+    const board = await ownersBoard(dataSource, '2027-08-23', '2027-09-03');
+
+    // Source: GOV.UK, "Bank holidays" (gov.uk/bank-holidays), England and Wales 2027: summer bank holiday, Monday 30 August.
+    expect(board.days.find((day) => day.date === '2027-08-30')?.offReason).toBe('Summer bank holiday');
+    expect(board.assignments.map((a) => a.days)).toContainEqual(['2027-08-27', '2027-08-31']);
+  });
 });
+
+/** The board as the demo owner sees it. */
+async function ownersBoard(dataSource: DataSource, from: string, to: string) {
+  const [owner] = (await dataSource.query(
+    `SELECT m.id, m.user_id, m.firm_id FROM membership m JOIN app_user u ON u.id = m.user_id WHERE u.email = $1`,
+    [DEMO_SIGN_INS[0]!.email],
+  )) as Array<{ id: string; user_id: string; firm_id: string }>;
+  const actor = { userId: owner!.user_id, firmId: owner!.firm_id, membershipId: owner!.id, role: 'owner' as const, crewIds: [] };
+  return new ScheduleService(dataSource, new EventBus()).board(actor, { from, to });
+}

@@ -1,6 +1,6 @@
 import argon2 from 'argon2';
 import type { DataSource, EntityManager } from 'typeorm';
-import { addDays, isoWeekday, type AccessNeed, type ClientContact, type Role, type TimeOffValues, type WorkType } from '@hodboard/shared';
+import { addDays, isoWeekday, isWorkingDay, publicHolidays, type AccessNeed, type ClientContact, type Role, type TimeOffValues, type WorkType } from '@hodboard/shared';
 import { EventBus } from '../lib/event-bus.js';
 import { seedDemoAccess } from './demo-access.js';
 import { seedDemoQuotes } from './demo-quotes.js';
@@ -115,6 +115,28 @@ function withinTransaction(dataSource: DataSource, manager: EntityManager): Data
   }) as DataSource;
 }
 
+/**
+ * Most of the year no bank holiday falls in the six weeks shown, so one more job is booked over the next one, where
+ * its span skips the holiday. On the first crew free by then, the working day before, so it runs over the holiday;
+ * not on the crew whose alternate Fridays off could fall on that day.
+ */
+async function placeOverNextBankHoliday(
+  schedule: ScheduleService, actor: Actor, job: Job, crews: Crew[], freeFrom: Map<string, string>, shown: { from: string; to: string },
+): Promise<void> {
+  const year = Number(shown.from.slice(0, 4));
+  const holidays = [...publicHolidays(year), ...publicHolidays(year + 1)].map((holiday) => holiday.date);
+  if (holidays.some((date) => date >= shown.from && date <= shown.to)) return;
+  for (const holiday of holidays.filter((date) => date > shown.to)) {
+    let dayBefore = addDays(holiday, -1);
+    while (!isWorkingDay(dayBefore)) dayBefore = addDays(dayBefore, -1);
+    const crew = crews.find((candidate) => freeFrom.get(candidate.id)! <= dayBefore);
+    if (crew) {
+      await schedule.place(actor, { jobId: job.id, crewId: crew.id, startDate: dayBefore, confirmDoubleBooking: false });
+      return;
+    }
+  }
+}
+
 async function seedInto(dataSource: DataSource, passwordHash: string, today: string): Promise<void> {
   const owner = DEMO_SIGN_INS[0]!;
   const base = await dataSource.transaction(async (manager) => {
@@ -176,21 +198,24 @@ async function seedInto(dataSource: DataSource, passwordHash: string, today: str
   const timeOff = new TimeOffService(dataSource, events);
   const schedule = new ScheduleService(dataSource, events);
   const monday = addDays(today, 1 - isoWeekday(today));
+  const shown = { from: monday, to: addDays(monday, 6 * 7 - 1) };
+  const alternateFridaysCrew = base.crews[1]!;
   await timeOff.create(actor, timeOffValues({ scope: 'firm', label: 'Firm training day', startDate: addDays(monday, 24), endDate: addDays(monday, 24) }));
-  await timeOff.create(actor, timeOffValues({ scope: 'crew', crewId: base.crews[1]!.id, label: 'Alternate Fridays', startDate: addDays(monday, 4), endDate: addDays(monday, 4), repeats: 'fortnightly' }));
+  await timeOff.create(actor, timeOffValues({ scope: 'crew', crewId: alternateFridaysCrew.id, label: 'Alternate Fridays', startDate: addDays(monday, 4), endDate: addDays(monday, 4), repeats: 'fortnightly' }));
   await timeOff.create(actor, timeOffValues({ scope: 'member', memberId: base.members.get('operative@demo.hodboard.test')!.id, label: 'Holiday', startDate: addDays(monday, 14), endDate: addDays(monday, 18) }));
 
   // Thirty-odd jobs placed back to back on each crew's own calendar; the last few stay in the tray.
-  const cursors = base.crews.map(() => monday);
+  const cursors = new Map(base.crews.map((crew) => [crew.id, monday]));
   for (const [index, job] of base.jobs.slice(0, 32).entries()) {
-    const crewIndex = index % base.crews.length;
-    const change = await schedule.place(actor, { jobId: job.id, crewId: base.crews[crewIndex]!.id, startDate: cursors[crewIndex]!, confirmDoubleBooking: false });
-    cursors[crewIndex] = addDays(change.assignment!.days[change.assignment!.days.length - 1]!, 1);
+    const crew = base.crews[index % base.crews.length]!;
+    const change = await schedule.place(actor, { jobId: job.id, crewId: crew.id, startDate: cursors.get(crew.id)!, confirmDoubleBooking: false });
+    cursors.set(crew.id, addDays(change.assignment!.days.at(-1)!, 1));
   }
   // Deliberate conflicts for the demo: a double booking the office confirmed, and a job before its earliest start.
   await schedule.place(actor, { jobId: base.jobs[32]!.id, crewId: base.crews[0]!.id, startDate: addDays(monday, 8), confirmDoubleBooking: true });
   await dataSource.manager.update(Job, { id: base.jobs[33]!.id }, { earliestStart: addDays(monday, 21) });
   await schedule.place(actor, { jobId: base.jobs[33]!.id, crewId: base.crews[2]!.id, startDate: addDays(monday, 15), confirmDoubleBooking: true });
+  await placeOverNextBankHoliday(schedule, actor, base.jobs[34]!, base.crews.filter((crew) => crew !== alternateFridaysCrew), cursors, shown);
   await seedSiteNotes(dataSource, base.firm.id, base.jobs, base.members);
   const job = (reference: string) => base.jobs.find((candidate) => candidate.reference === reference)!;
   await seedDemoAccess(dataSource, actor, {
