@@ -109,6 +109,45 @@ describe('access tokens', () => {
   });
 });
 
+describe('a changed role', () => {
+  it("refuses an office user's old token on office work once they are made an operative", async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    const office = await addPerson(h, owner, 'office', 'office@example.org');
+    const client = await request(h.app).post('/api/clients').set(office.auth).send({ name: 'Wold Top Farm' }).expect(201);
+    await request(h.app).get('/api/people').set(office.auth).expect(200);
+    const people = await request(h.app).get('/api/people').set(owner.auth).expect(200);
+    const officeMember = (people.body as Array<{ id: string; email: string }>).find((p) => p.email === 'office@example.org')!;
+    const demoted = await request(h.app).patch(`/api/people/${officeMember.id}`).set(owner.auth).send({ role: 'operative' }).expect(200);
+    expect(demoted.body.role).toBe('operative');
+
+    const before = await countRows(h.dataSource);
+    const write = await request(h.app).post('/api/clients').set(office.auth).send({ name: 'Sneaked In Ltd' }).expect(403);
+    expect(write.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(write.body.code).toBe('forbidden');
+    await request(h.app).put(`/api/clients/${client.body.id}`).set(office.auth).send({ name: 'Renamed' }).expect(403);
+    for (const officeOnly of ['/api/clients', `/api/clients/${client.body.id}`, '/api/people']) {
+      const read = await request(h.app).get(officeOnly).set(office.auth);
+      expect(read.status, officeOnly).toBe(403);
+      expect(JSON.stringify(read.body), officeOnly).not.toContain('Wold Top');
+    }
+    expect(await countRows(h.dataSource)).toEqual(before);
+    expect((await request(h.app).get('/api/auth/me').set(office.auth).expect(200)).body.role).toBe('operative');
+  });
+
+  it('takes the role from the database, not from a role claim added to a correctly signed token', async () => {
+    const owner = await signUpFirm(h, 'Firm', 'owner@example.org');
+    const operative = await addPerson(h, owner, 'operative', 'op@example.org');
+    const claims = jwt.decode(operative.token) as Record<string, unknown>;
+    const promoted = jwt.sign({ sub: claims.sub, mid: claims.mid, fid: claims.fid, role: 'owner' }, TEST_SECRET, { expiresIn: 600 });
+    const auth = { Authorization: `Bearer ${promoted}` };
+    expect((await request(h.app).get('/api/auth/me').set(auth).expect(200)).body.role).toBe('operative');
+    await request(h.app).put('/api/firm').set(auth).send({ name: 'Taken Over Ltd' }).expect(403);
+    await request(h.app).get('/api/clients').set(auth).expect(403);
+    await request(h.app).post('/api/people/invite').set(auth).send({ email: 'friend@example.org', name: 'Friend', role: 'owner' }).expect(403);
+    expect((await request(h.app).get('/api/firm').set(owner.auth).expect(200)).body.name).toBe('Firm');
+  });
+});
+
 describe('invitations and password resets', () => {
   it('accepts an invitation once and refuses the same link again', async () => {
     const owner = await signUpFirm(h, 'Firm', 'owner@example.org');

@@ -175,6 +175,11 @@ export class AuthService {
       if (error instanceof jwt.TokenExpiredError) throw errors.tokenExpired('Your session has expired; sign in again.');
       throw errors.tokenInvalid('Your session is not valid; sign in again.');
     }
+    return this.currentActor({ userId: claims.sub, firmId: claims.fid, membershipId: claims.mid });
+  }
+
+  /** The membership as the database holds it now: its role and crews, whatever a token or an open socket was given earlier. */
+  async currentActor(who: Pick<Actor, 'userId' | 'firmId' | 'membershipId'>): Promise<Actor> {
     // Every authenticated request runs this, so it is one statement: the membership and its crews together.
     const rows: Array<{ user_id: string; firm_id: string; role: string; crew_ids: string }> = await this.dataSource.query(
       `SELECT m.user_id, m.firm_id, m.role,
@@ -185,16 +190,16 @@ export class AuthService {
               ), ',') AS crew_ids
          FROM membership m
         WHERE m.id = $1 AND m.status = 'active'`,
-      [claims.mid],
+      [who.membershipId],
     );
     const membership = rows[0];
-    if (!membership || membership.user_id !== claims.sub || membership.firm_id !== claims.fid) {
+    if (!membership || membership.user_id !== who.userId || membership.firm_id !== who.firmId) {
       throw errors.unauthenticated('Your access to this firm has ended.');
     }
     return {
       userId: membership.user_id,
       firmId: membership.firm_id,
-      membershipId: claims.mid,
+      membershipId: who.membershipId,
       role: roleSchema.parse(membership.role),
       crewIds: membership.crew_ids ? membership.crew_ids.split(',') : [],
     };

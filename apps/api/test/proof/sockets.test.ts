@@ -6,20 +6,21 @@ import request from 'supertest';
 import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DomainEvent } from '../../src/lib/event-bus.js';
-import { attachRealtime } from '../../src/realtime/socket-server.js';
-import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from '../harness.js';
+import { attachRealtime, crewRoom, officeRoom, type RealtimeServer } from '../../src/realtime/socket-server.js';
+import { addPerson, createHarness, populateFirm, signIn, signUpFirm, truncateAll, type Harness, type SignedIn } from '../harness.js';
 import { quoteFixture } from '../quotes-helpers.js';
 
 let h: Harness;
 let server: Server;
 let url: string;
+let io: RealtimeServer;
 const sockets: Socket[] = [];
 
 beforeAll(async () => {
   h = await createHarness();
   await truncateAll(h.dataSource);
   server = createServer(h.app);
-  attachRealtime(server, h.services.auth, h.services.events, pino({ level: 'silent' }));
+  io = attachRealtime(server, h.services.auth, h.services.events, pino({ level: 'silent' }));
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
 });
@@ -104,5 +105,67 @@ describe('live pushes across firms', () => {
     for (const [i, { heard }] of listeners.entries()) {
       expect(heard, `${Object.keys(firmA)[i]} of firm A`).toEqual([]);
     }
+  });
+});
+
+/** Whether the server has this client's socket in a room: a reseat after a change is asynchronous, so tests wait on it. */
+async function isInRoom(socket: Socket, room: string): Promise<boolean> {
+  return (await io.in(room).fetchSockets()).some((member) => member.id === socket.id);
+}
+
+describe('live pushes after a change of role or membership', () => {
+  it('takes a demoted office user out of the office room at once, and closes the socket of a removed crew lead', async () => {
+    const owner = await signUpFirm(h, 'Hazel Yard Builders', 'owner@hazelyard.example');
+    const ids = await populateFirm(h, owner, 'Tithe Barn Cottage');
+    const office = await addPerson(h, owner, 'office', 'office@hazelyard.example');
+    await addPerson(h, owner, 'crew-lead', 'lead@hazelyard.example');
+    const leadId = await personId(owner, 'lead@hazelyard.example');
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ name: 'Gable crew', colour: '#445566', leadMemberId: leadId }).expect(200);
+    const leadAgain = await signIn(h, 'lead@hazelyard.example');
+    const firmId = owner.session.firm.id;
+
+    const byOwner = await listen(owner);
+    const byOffice = await listen(office);
+    const byLead = await listen(leadAgain);
+    expect(await isInRoom(byOffice.socket, officeRoom(firmId))).toBe(true);
+    expect(await isInRoom(byLead.socket, crewRoom(ids.crewId))).toBe(true);
+
+    await request(h.app).patch(`/api/people/${await personId(owner, 'office@hazelyard.example')}`).set(owner.auth).send({ role: 'operative' }).expect(200);
+    await expect.poll(() => isInRoom(byOffice.socket, officeRoom(firmId)), { timeout: 3_000 }).toBe(false);
+    expect(byOffice.socket.connected).toBe(true);
+    byOwner.heard.length = 0;
+    byOffice.heard.length = 0;
+    await request(h.app).put(`/api/clients/${ids.clientId}`).set(owner.auth).send({ name: 'Tithe Barn Cottage Ltd' }).expect(200);
+    await expect.poll(() => byOwner.heard.filter((entry) => entry.message.type === 'client:updated').length, { timeout: 3_000 }).toBe(1);
+
+    await request(h.app).delete(`/api/people/${leadId}`).set(owner.auth).expect(204);
+    await expect.poll(() => byLead.socket.connected, { timeout: 3_000 }).toBe(false);
+    byLead.heard.length = 0;
+    await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth).send({ crewId: ids.crewId, startDate: '2027-03-08', workingDays: 3, version: 1 }).expect(200);
+    await expect.poll(() => byOwner.heard.filter((entry) => entry.message.type === 'assignment:moved').length, { timeout: 3_000 }).toBe(1);
+
+    await new Promise((resolve) => setTimeout(resolve, 300));
+    expect(byOffice.heard, 'the demoted office user').toEqual([]);
+    expect(byLead.heard, 'the removed crew lead').toEqual([]);
+  });
+
+  it("moves an open socket out of a crew's room when the crew's line-up drops that person", async () => {
+    const owner = await signUpFirm(h, 'Rowan Gate Masonry', 'owner@rowangate.example');
+    const ids = await populateFirm(h, owner, 'Cold Harbour Mill');
+    const operative = await addPerson(h, owner, 'operative', 'op@rowangate.example');
+    const operativeId = await personId(owner, 'op@rowangate.example');
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ name: 'Gable crew', colour: '#445566', memberIds: [operativeId] }).expect(200);
+    const byOwner = await listen(owner);
+    const byOperative = await listen(operative);
+    expect(await isInRoom(byOperative.socket, crewRoom(ids.crewId))).toBe(true);
+
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ name: 'Gable crew', colour: '#445566', memberIds: [] }).expect(200);
+    await expect.poll(() => isInRoom(byOperative.socket, crewRoom(ids.crewId)), { timeout: 3_000 }).toBe(false);
+    byOperative.heard.length = 0;
+    await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth).send({ crewId: ids.crewId, startDate: '2027-03-08', workingDays: 3, version: 1 }).expect(200);
+    await expect.poll(() => byOwner.heard.filter((entry) => entry.message.type === 'assignment:moved').length, { timeout: 3_000 }).toBe(1);
+    await new Promise((resolve) => setTimeout(resolve, 300));
+    expect(byOperative.heard).toEqual([]);
+    expect(byOperative.socket.connected).toBe(true);
   });
 });
