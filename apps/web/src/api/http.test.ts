@@ -248,4 +248,26 @@ describe('renewing the session with no signal', () => {
     expect(calls.map((call) => call.url)).toEqual(['/api/auth/refresh', '/api/crew-days']);
     expect(authHeader(calls[1])).toBe('Bearer second-token');
   });
+
+  it('takes a read the page sent before the client existed once, and asks the server again when that read failed', async () => {
+    const early: Record<string, Promise<Response | null>> = {
+      '/crew-days': Promise.resolve(json(200, { days: ['early'] })),
+      '/board?from=2026-01-05': Promise.resolve(json(401, { code: 'unauthenticated' })),
+    };
+    const { calls, fetchImpl } = fakeFetch([() => json(200, { days: ['asked'] }), () => json(200, { days: ['again'] })]);
+    const client = createHttpClient({
+      fetch: fetchImpl,
+      takeEarlyRead: (pathAndQuery) => {
+        const taken = early[pathAndQuery] ?? null;
+        delete early[pathAndQuery];
+        return taken;
+      },
+    });
+
+    await expect(client.get('/crew-days')).resolves.toEqual({ days: ['early'] });
+    expect(calls).toHaveLength(0);
+    await expect(client.get('/board', { query: { from: '2026-01-05' } })).resolves.toEqual({ days: ['asked'] });
+    await expect(client.get('/crew-days')).resolves.toEqual({ days: ['again'] });
+    expect(calls.map((call) => call.url)).toEqual(['/api/board?from=2026-01-05', '/api/crew-days']);
+  });
 });

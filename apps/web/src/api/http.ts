@@ -1,5 +1,5 @@
 import { errorCodes, type ErrorCode, type Problem, type SessionDto } from '@hodboard/shared';
-import { takeEarlyRefresh } from '@/boot/early-refresh';
+import { takeEarlyRead, takeEarlyRefresh } from '@/boot/early-refresh';
 
 export type QueryValue = string | number | boolean | null | undefined;
 
@@ -87,6 +87,8 @@ export interface HttpClientOptions {
   fetch?: typeof fetch;
   /** A renewal request already sent before the client existed (the page's first script sends one); used once. */
   takeEarlyRefresh?: () => Promise<Response> | null;
+  /** A GET the page's first script already sent for this path and query (with the early renewal's token); used once. */
+  takeEarlyRead?: (pathAndQuery: string) => Promise<Response | null> | null;
 }
 
 type SessionListener = (session: SessionDto | null) => void;
@@ -195,10 +197,22 @@ export function createHttpClient(options: HttpClientOptions = {}): HttpClient {
     return session;
   }
 
+  /** The early answer to this read when it succeeded; anything else is asked again the ordinary way. */
+  async function earlyAnswer(pathAndQuery: string): Promise<Response | null> {
+    const pending = options.takeEarlyRead?.(pathAndQuery);
+    if (!pending) return null;
+    try {
+      const response = await pending;
+      return response?.ok ? response : null;
+    } catch {
+      return null;
+    }
+  }
+
   async function request<T>(method: string, path: string, opts: RequestOptions = {}): Promise<T> {
     // A renewal under way (the page just opened) brings the token this request needs: wait rather than be refused.
     if (refreshInFlight && !opts.skipRefresh) await refreshInFlight;
-    let response = await send(method, path, opts);
+    let response = (method === 'GET' ? await earlyAnswer(`${path}${buildQuery(opts.query)}`) : null) ?? (await send(method, path, opts));
     if (response.status === 401 && !opts.skipRefresh) {
       const session = await renewal();
       // No answer is a lost signal, not a lost session: keep it and fail like any other offline request.
@@ -230,4 +244,4 @@ export function createHttpClient(options: HttpClientOptions = {}): HttpClient {
   };
 }
 
-export const http = createHttpClient({ takeEarlyRefresh });
+export const http = createHttpClient({ takeEarlyRefresh, takeEarlyRead });

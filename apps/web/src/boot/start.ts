@@ -1,10 +1,16 @@
-// The page's first script. It stays tiny so it runs as soon as the page arrives: it sends the session renewal
-// and asks for the opened screen's code, then lets the shell that index.html draws paint before the app starts.
+// The page's first script. It stays tiny so it runs as soon as the page arrives: it sends the session renewal (and,
+// on the crew's home, the first read once the renewal answers) and asks for the opened screen's code, then lets the
+// shell that index.html draws paint before the app starts.
 // On a slow phone the app's code takes a second or more to evaluate; without the wait the screen stays blank
 // for all of it. The app's code is already downloading meanwhile (index.html preloads it).
 import { startLoadingViewFor } from '@/router/early-views';
-import { startEarlyRefresh } from './early-refresh';
+import { startEarlyRead, startEarlyRefresh } from './early-refresh';
+
+/** The read the crew's home starts with, sent once the renewal answers rather than once the app has started. */
+const firstReadFor: Record<string, string> = { '/crew': '/crew-days' };
 
 startEarlyRefresh();
+const firstRead = firstReadFor[location.pathname.replace(/\/+$/, '')];
+if (firstRead) startEarlyRead(firstRead);
 startLoadingViewFor(location.pathname);
 requestAnimationFrame(() => setTimeout(() => void import('../main')));

@@ -106,13 +106,16 @@ export const useCrewStore = defineStore('crew', () => {
       // Asked for at once; what this phone saved shows while the answer is on its way.
       const answer = takePrefetchedCrewDays() ?? getCrewDays();
       answer.catch(() => undefined);
+      // The saved copy is read alongside, not first: an answer already here (the page's first script asked for it)
+      // shows at once, and a saved copy arriving after it is not shown.
+      const saved = restoreSnapshot();
       try {
-        await restoreSnapshot();
         const fresh = await answer;
         data.value = fresh;
         savedAt.value = fresh.generatedAt;
         if (session.user) await saveSnapshot(session.user.id, fresh).catch(() => undefined);
       } catch (error) {
+        await saved;
         if (isApiError(error) && error.status === 0) {
           isOnline.value = false;
           if (!data.value) loadError.value = 'No signal, and nothing saved on this phone yet. Open Hodboard once with a signal to keep your days here.';
