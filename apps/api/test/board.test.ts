@@ -219,6 +219,30 @@ describe('live pushes', () => {
     expect(seenByOtherFirm).toEqual([]);
   });
 
+  it("pushes a move between crews to both crews' leads and not to a third crew's", async () => {
+    const leads: Record<string, SignedIn> = {};
+    const crewIds: Record<string, string> = { from: ids.crewId };
+    for (const name of ['from', 'to', 'bystander']) leads[name] = await addPerson(h, owner, 'crew-lead', `${name}-lead@elm.example`);
+    const crew = await request(h.app).get(`/api/crews/${ids.crewId}`).set(owner.auth).expect(200);
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ ...crew.body, leadMemberId: await memberIdOf('from-lead@elm.example') }).expect(200);
+    for (const [name, colour] of [['to', '#3366aa'], ['bystander', '#aa6633']] as const) {
+      const created = await request(h.app).post('/api/crews').set(owner.auth)
+        .send({ name: `Crew ${name}`, colour, leadMemberId: await memberIdOf(`${name}-lead@elm.example`) }).expect(201);
+      crewIds[name] = created.body.id;
+    }
+    const placed = await place({ jobId: ids.jobId, crewId: crewIds.from, startDate: '2027-03-01' }).expect(201);
+    const heard = { from: await listen(leads.from!), to: await listen(leads.to!), bystander: await listen(leads.bystander!) };
+
+    await request(h.app).put(`/api/assignments/${placed.body.assignment.id}`).set(owner.auth)
+      .send({ crewId: crewIds.to, startDate: '2027-03-08', workingDays: 3, version: placed.body.assignment.version }).expect(200);
+    for (const name of ['from', 'to'] as const) {
+      await expect.poll(() => heard[name].length, { timeout: 3000 }).toBe(1);
+      expect(heard[name][0], name).toMatchObject({ type: 'assignment:moved', change: { job: { id: ids.jobId }, assignment: { crewId: crewIds.to, startDate: '2027-03-08' } } });
+    }
+    await new Promise((resolve) => setTimeout(resolve, 300));
+    expect(heard.bystander).toEqual([]);
+  });
+
   it('refuses a socket without a valid token', async () => {
     const socket = connect(url, { auth: { token: 'nonsense' }, transports: ['websocket'], reconnection: false });
     sockets.push(socket);
