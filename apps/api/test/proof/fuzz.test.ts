@@ -10,13 +10,15 @@ import { findNul } from '../../src/middleware/validate.js';
 import { listPublicRoutes, listResourceRoutes, type RouteInfo } from '../../src/app.js';
 import { createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from '../harness.js';
 import { quoteFixture } from '../quotes-helpers.js';
-import { mutationOf, oddPathSegments, queryMutationOf, type Mutation } from './mutations.js';
+import { bodyMutations, oddPathSegments, queryMutations, type Mutation } from './mutations.js';
 import { arbitraryOf, fieldsOf, type ArbitraryContext } from './zod-arbitrary.js';
 import { rowCounts } from './row-counts.js';
 
 // Fixed so a failure replays exactly; fast-check prints the seed and the failing case. FUZZ_SEED / FUZZ_RUNS override.
+// Every route gets every kind of mutation its body, query and path allow, FUZZ_RUNS times each, and input as generated.
 const SEED = Number(process.env.FUZZ_SEED ?? 20_270_301);
-const RUNS = Number(process.env.FUZZ_RUNS ?? 12);
+const RUNS = Number(process.env.FUZZ_RUNS ?? 2);
+const PLAIN_RUNS = 3;
 
 let h: Harness;
 let server: Server;
@@ -135,64 +137,56 @@ describe('fuzzed input', () => {
   it('answers every fuzzed request on every route with 2xx/4xx, never 500, and writes nothing when the input is invalid', async () => {
     const routes = allRoutes();
     const failures: string[] = [];
+    let cases = 0;
     for (const [index, route] of routes.entries()) {
       const { paramsArb, queryArb, bodyArb, names } = generatorsFor(route);
       const hasBody = Boolean(route.spec?.body);
-      const queryFields = route.spec?.query ? fieldsOf(route.spec.query) : [];
-      const bodyFields = route.spec?.body ? fieldsOf(route.spec.body) : [];
-      const targets = [
-        ...(hasBody ? (['body'] as const) : []),
-        ...(route.spec?.query ? (['query'] as const) : []),
-        ...(names.length ? (['params'] as const) : []),
+      const valid = fc.record({ params: paramsArb, query: queryArb, body: bodyArb });
+      const apply = (mutation: Mutation, value: unknown) => mutation.apply((value && typeof value === 'object' && !Array.isArray(value) ? value : {}) as Record<string, unknown>);
+      // Each kind of bad input on its own: input as generated, then every mutation of the body, the query and the path.
+      const kinds: Array<{ runs: number; arb: fc.Arbitrary<{ parts: Parts; label: string; rawSegment?: { name: string; value: string } }> }> = [
+        { runs: PLAIN_RUNS, arb: valid.map((parts) => ({ parts, label: 'as generated' })) },
+        ...(hasBody ? bodyMutations(fieldsOf(route.spec!.body!)) : []).map((mutation) => ({
+          runs: RUNS,
+          arb: fc.tuple(valid, mutation).map(([parts, m]) => ({ parts: { ...parts, body: apply(m, parts.body) }, label: `body: ${m.name}` })),
+        })),
+        ...(route.spec?.query ? queryMutations(fieldsOf(route.spec.query)) : []).map((mutation) => ({
+          runs: RUNS,
+          arb: fc.tuple(valid, mutation).map(([parts, m]) => ({ parts: { ...parts, query: apply(m, parts.query) as Record<string, unknown> }, label: `query: ${m.name}` })),
+        })),
+        ...(names.length ? [{
+          runs: RUNS * 2,
+          arb: fc.tuple(valid, fc.constantFrom(...names), fc.constantFrom(...oddPathSegments)).map(([parts, name, value]) => ({
+            parts, label: `path :${name} = ${value.slice(0, 40)}`, rawSegment: { name, value },
+          })),
+        }] : []),
       ];
-      const mutated = fc.record({
-        params: paramsArb,
-        query: queryArb,
-        body: bodyArb,
-        target: fc.constantFrom(...targets),
-        bodyMutation: mutationOf(bodyFields),
-        queryMutation: queryMutationOf(queryFields),
-        segment: fc.record({ name: names.length ? fc.constantFrom(...names) : fc.constant(''), value: fc.constantFrom(...oddPathSegments) }),
-        // One run in four sends the generated input as it is: valid input must not break the service either.
-        isPlain: fc.integer({ min: 0, max: 3 }).map((n) => n === 0),
-      });
-      const outcome = await fc.check(
-        fc.asyncProperty(mutated, async (input) => {
-          const parts: Parts = { params: input.params, query: input.query, body: input.body };
-          let label = 'as generated';
-          let rawSegment: { name: string; value: string } | undefined;
-          if (!input.isPlain) {
-            const apply = (mutation: Mutation, value: unknown) => mutation.apply((value && typeof value === 'object' && !Array.isArray(value) ? value : {}) as Record<string, unknown>);
-            if (input.target === 'body') {
-              parts.body = apply(input.bodyMutation, parts.body);
-              label = `body: ${input.bodyMutation.name}`;
-            } else if (input.target === 'query') {
-              parts.query = apply(input.queryMutation, parts.query) as Record<string, unknown>;
-              label = `query: ${input.queryMutation.name}`;
-            } else {
-              rawSegment = input.segment;
-              label = `path :${input.segment.name} = ${input.segment.value.slice(0, 40)}`;
+      for (const [kindIndex, kind] of kinds.entries()) {
+        cases += kind.runs;
+        const outcome = await fc.check(
+          fc.asyncProperty(kind.arb, async ({ parts, label, rawSegment }) => {
+            const url = urlFor(route, parts.params, parts.query, rawSegment);
+            const isValid = isAccepted(route, url, parts.body, hasBody);
+            const before = isValid ? undefined : await rowCounts(h.dataSource);
+            const res = await send(route, url, parts.body, hasBody);
+            const why = describeFailure(route, label, res.status, res.body);
+            expect(res.status, why).toBeLessThan(500);
+            if (res.status >= 400) expect(res.headers['content-type'], why).toMatch(/application\/problem\+json/);
+            if (!isValid) {
+              expect([400, 413], why).toContain(res.status);
+              expect(await rowCounts(h.dataSource), why).toEqual(before);
             }
-          }
-          const url = urlFor(route, parts.params, parts.query, rawSegment);
-          const isValid = isAccepted(route, url, parts.body, hasBody);
-          const before = isValid ? undefined : await rowCounts(h.dataSource);
-          const res = await send(route, url, parts.body, hasBody);
-          const why = describeFailure(route, label, res.status, res.body);
-          expect(res.status, why).toBeLessThan(500);
-          if (res.status >= 400) expect(res.headers['content-type'], why).toMatch(/application\/problem\+json/);
-          if (!isValid) {
-            expect([400, 413], why).toContain(res.status);
-            expect(await rowCounts(h.dataSource), why).toEqual(before);
-          }
-        }),
-        { seed: SEED + index, numRuns: RUNS, endOnFailure: true },
-      );
-      if (outcome.failed) {
-        const error = outcome.errorInstance instanceof Error ? outcome.errorInstance.message : String(outcome.errorInstance);
-        failures.push(`${error.split('\n').slice(0, 6).join('\n')}\n  (seed ${outcome.seed}, replay FUZZ_SEED=${SEED} route #${index})`);
+          }),
+          { seed: SEED + index * 100 + kindIndex, numRuns: kind.runs, endOnFailure: true },
+        );
+        if (outcome.failed) {
+          const error = outcome.errorInstance instanceof Error ? outcome.errorInstance.message : String(outcome.errorInstance);
+          failures.push(`${error.split('\n').slice(0, 6).join('\n')}\n  (seed ${outcome.seed}, replay FUZZ_SEED=${SEED} route #${index} kind #${kindIndex})`);
+        }
       }
     }
+    // Roughly a dozen kinds per route with a body: a route left with only its plain runs would show here.
+    expect(cases).toBeGreaterThan(routes.length * 8);
     expect(failures, failures.join('\n\n')).toEqual([]);
   }, 240_000);
 });

@@ -40,8 +40,11 @@ export interface Field {
 
 export type Mutation = { name: string; apply: (value: Record<string, unknown>) => unknown };
 
-/** One mutation of an object payload: a field of the wrong type, missing, too long, odd text or numbers, bad dates, extras. */
-export function mutationOf(fields: Field[]): fc.Arbitrary<Mutation> {
+/**
+ * The kinds of mutation of an object payload, one generator each: a field of the wrong type, missing, too long, odd
+ * text or numbers, bad dates, extras. A route is sent every kind its fields allow.
+ */
+export function bodyMutations(fields: Field[]): Array<fc.Arbitrary<Mutation>> {
   const any = fields.length ? fc.constantFrom(...fields) : fc.constant<Field>({ key: 'unexpected', kind: 'other', isRequired: false });
   const required = fields.filter((field) => field.isRequired);
   const strings = fields.filter((field) => field.kind === 'string' || field.kind === 'id' || field.kind === 'enum' || field.kind === 'other');
@@ -70,21 +73,26 @@ export function mutationOf(fields: Field[]): fc.Arbitrary<Mutation> {
   }
   if (numbers.length) {
     options.push(fc.tuple(fc.constantFrom(...numbers), fc.constantFrom(...oddNumbers)).map(([field, v]) => ({ name: `${field.key} = ${v}`, apply: set(field.key, v) })));
+    options.push(fc.tuple(fc.constantFrom(...numbers), fc.constantFrom(...oddNumbers.filter((n) => n < 0))).map(([field, v]) => ({ name: `${field.key} = ${v}`, apply: set(field.key, v) })));
     options.push(fc.constantFrom(...numbers).map((field) => ({ name: `${field.key} as text`, apply: set(field.key, '12abc') })));
   }
   if (dates.length) {
     options.push(fc.tuple(fc.constantFrom(...dates), fc.constantFrom(...oddDates)).map(([field, v]) => ({ name: `${field.key} = ${v}`, apply: set(field.key, v) })));
   }
-  return fc.oneof(...options);
+  return options;
 }
 
 /** The same for a query string, where every value travels as text. */
-export function queryMutationOf(fields: Field[]): fc.Arbitrary<Mutation> {
+export function queryMutations(fields: Field[]): Array<fc.Arbitrary<Mutation>> {
   const any = fields.length ? fc.constantFrom(...fields) : fc.constant<Field>({ key: 'unexpected', kind: 'other', isRequired: false });
   const required = fields.filter((field) => field.isRequired);
   const set = (key: string, v: unknown) => (value: Record<string, unknown>) => ({ ...value, [key]: v });
+  const numbers = fields.filter((field) => field.kind === 'number');
+  const dates = fields.filter((field) => field.kind === 'date');
   const options: Array<fc.Arbitrary<Mutation>> = [
-    fc.tuple(any, fc.constantFrom('abc', '-1', '1.5', '1e999', 'NaN', 'Infinity', 'true', '', '[]', '{}', '0x10', ...oddDates)).map(([field, v]) => ({ name: `${field.key}=${v}`, apply: set(field.key, v) })),
+    fc.tuple(any, fc.constantFrom('abc', '1.5', '1e999', 'NaN', 'Infinity', 'true', '', '[]', '{}', '0x10')).map(([field, v]) => ({ name: `${field.key}=${v}`, apply: set(field.key, v) })),
+    fc.tuple(numbers.length ? fc.constantFrom(...numbers) : any, fc.constantFrom('-1', '-0.5', '-2147483649')).map(([field, v]) => ({ name: `${field.key}=${v}`, apply: set(field.key, v) })),
+    fc.tuple(dates.length ? fc.constantFrom(...dates) : any, fc.constantFrom(...oddDates)).map(([field, v]) => ({ name: `${field.key}=${v}`, apply: set(field.key, v) })),
     fc.tuple(any, fc.constantFrom(...oddStrings)).map(([field, v]) => ({ name: `${field.key}=${JSON.stringify(v)}`, apply: set(field.key, v) })),
     any.map((field) => ({ name: `${field.key} huge`, apply: set(field.key, HUGE_QUERY_STRING) })),
     any.map((field) => ({ name: `${field.key} repeated`, apply: (value: Record<string, unknown>) => ({ ...value, [field.key]: ['1', '2'] }) })),
@@ -96,7 +104,7 @@ export function queryMutationOf(fields: Field[]): fc.Arbitrary<Mutation> {
       apply: (value: Record<string, unknown>) => Object.fromEntries(Object.entries(value).filter(([key]) => key !== field.key)),
     })));
   }
-  return fc.oneof(...options);
+  return options;
 }
 
 /** Path segments that are not what the route's params expect. */
