@@ -1,9 +1,11 @@
-// Merges the rows each benchmark wrote into one table on stdout and one JSON file.
+// Merges the rows each benchmark wrote into one table on stdout and one JSON file. A run of some suites only
+// (HB_ONLY) keeps the rows OUT.json already held for the others, each with the time it was measured.
 // Usage: node bench-table.mjs OUT.json suite=rows.json...
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 
 const [outFile, ...inputs] = process.argv.slice(2);
+const measuredAt = new Date().toISOString();
 const rows = [];
 for (const input of inputs) {
   const at = input.indexOf('=');
@@ -15,7 +17,7 @@ for (const input of inputs) {
   }
   const parsed = JSON.parse(readFileSync(file, 'utf8'));
   for (const row of Array.isArray(parsed) ? parsed : [parsed]) {
-    if (row && typeof row === 'object') rows.push({ suite, ...row });
+    if (row && typeof row === 'object') rows.push({ suite, ...row, measuredAt });
   }
 }
 
@@ -25,12 +27,21 @@ const machine = {
   loadAverageAtStart: process.env.BENCH_LOAD_START ?? null,
   loadAverageAtEnd: loadavg().map((n) => n.toFixed(2)).join(' '),
 };
-writeFileSync(outFile, `${JSON.stringify({ date: new Date().toISOString(), node: process.version, machine, rows }, null, 2)}\n`);
+const runSuites = new Set(inputs.map((input) => input.slice(0, input.indexOf('='))));
+const earlier = existsSync(outFile) ? JSON.parse(readFileSync(outFile, 'utf8')) : { rows: [] };
+const kept = (earlier.rows ?? [])
+  .filter((row) => !runSuites.has(row.suite))
+  .map((row) => ({ ...row, measuredAt: row.measuredAt ?? earlier.date ?? null }));
+writeFileSync(outFile, `${JSON.stringify({ date: measuredAt, node: process.version, machine, rows: [...rows, ...kept] }, null, 2)}\n`);
+if (kept.length) {
+  const suites = [...new Set(kept.map((row) => `${row.suite} (${row.measuredAt ?? 'an earlier run'})`))];
+  console.log(`kept ${kept.length} rows of suites not run this time: ${suites.join(', ')}`);
+}
 if (rows.length === 0) process.exit(0);
 
 // The usual columns first, in reading order; any other a benchmark writes follows.
 const preferred = ['suite', 'figure', 'hodboard', 'floor', 'ratio', 'target', 'met'];
-const seen = new Set(rows.flatMap((r) => Object.keys(r)));
+const seen = new Set(rows.flatMap((r) => Object.keys(r)).filter((key) => key !== 'measuredAt'));
 const columns = [...preferred.filter((c) => seen.has(c)), ...[...seen].filter((c) => !preferred.includes(c))];
 const cell = (value) => {
   if (value === undefined || value === null) return '';
