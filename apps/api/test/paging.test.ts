@@ -147,3 +147,122 @@ describe('sites table', () => {
     expect(res.items.map((s) => s.postcode)).toEqual(['SX4 2CD']);
   });
 });
+
+describe('jobs table', () => {
+  const crewIds: Record<string, string> = {};
+  const jobIds: Record<string, string> = {};
+  const references: Record<string, string> = {};
+  // Placed ones: North from Mon 1 March (2 days), South from Mon 15 March (3 days), North again from Mon 5 April (2 days).
+  const JOBS = [
+    { key: 'orchard', client: 'Alder Farm', site: '1 Orchard Way', title: 'Rebuild orchard wall', workTypes: ['garden-wall'], place: { crew: 'North', startDate: '2027-03-01', workingDays: 2 } },
+    { key: 'mill', client: 'Alder Farm', site: '2 Mill Lane', title: 'Repoint mill gable', workTypes: ['repointing', 'brickwork'], place: { crew: 'South', startDate: '2027-03-15', workingDays: 3 } },
+    { key: 'chimney', client: 'Birch House', site: '9 Kiln Row', title: 'Chimney rebuild', workTypes: ['chimney'], place: { crew: 'North', startDate: '2027-04-05', workingDays: 2 } },
+    { key: 'porch', client: 'Cedar Lodge', site: '14 Quarry Row', title: 'Render porch', workTypes: ['rendering'], status: 'enquiry' },
+    { key: 'steps', client: 'Elm Cottage', site: '3 Chapel Walk', title: 'Brick garden steps', workTypes: ['brickwork'], status: 'quoted' },
+  ] as const;
+  const keysOf = (page: { items: Array<Record<string, unknown>> }) =>
+    page.items.map((item) => Object.keys(jobIds).find((key) => jobIds[key] === item.id) ?? `foreign ${String(item.id)}`);
+  const jobs = (query: Record<string, string | number>) => list('/api/jobs', { sort: 'title', ...query });
+
+  beforeAll(async () => {
+    const sites = await list('/api/sites', { pageSize: 50 });
+    const siteIds = Object.fromEntries(sites.items.map((site) => [site.addressLine1 as string, site.id as string]));
+    for (const [name, colour] of [['North', '#225588'], ['South', '#885522']] as const) {
+      crewIds[name] = (await request(h.app).post('/api/crews').set(owner.auth).send({ name: `${name} crew`, colour }).expect(201)).body.id;
+    }
+    for (const job of JOBS) {
+      const created = await request(h.app).post('/api/jobs').set(owner.auth)
+        .send({ clientId: clientIds[job.client], siteId: siteIds[job.site], title: job.title, workTypes: job.workTypes, estimatedWorkingDays: 2 }).expect(201);
+      jobIds[job.key] = created.body.id;
+      references[job.key] = created.body.reference;
+      const status = 'place' in job ? 'booked' : job.status;
+      if (status !== 'enquiry') await request(h.app).post(`/api/jobs/${created.body.id}/status`).set(owner.auth).send({ status }).expect(200);
+      if ('place' in job) {
+        await request(h.app).post('/api/assignments').set(owner.auth)
+          .send({ jobId: created.body.id, crewId: crewIds[job.place.crew], startDate: job.place.startDate, workingDays: job.place.workingDays }).expect(201);
+      }
+    }
+  });
+
+  it('pages through every job by reference by default, with the total on every page', async () => {
+    const first = await list('/api/jobs', { pageSize: 2 });
+    expect(first).toMatchObject({ total: 5, page: 1, pageSize: 2 });
+    expect(keysOf(first)).toEqual(['orchard', 'mill']);
+    expect(keysOf(await list('/api/jobs', { pageSize: 2, page: 2 }))).toEqual(['chimney', 'porch']);
+    const last = await list('/api/jobs', { pageSize: 2, page: 3 });
+    expect(last).toMatchObject({ total: 5, page: 3 });
+    expect(keysOf(last)).toEqual(['steps']);
+    expect(await list('/api/jobs', { pageSize: 2, page: 4 })).toMatchObject({ items: [], total: 5 });
+  });
+
+  it('sorts by title and by start date, either way', async () => {
+    expect(keysOf(await jobs({}))).toEqual(['steps', 'chimney', 'orchard', 'porch', 'mill']);
+    expect(keysOf(await jobs({ order: 'desc' }))).toEqual(['mill', 'porch', 'orchard', 'chimney', 'steps']);
+    const byStart = keysOf(await list('/api/jobs', { sort: 'startDate', status: 'scheduled' }));
+    expect(byStart).toEqual(['orchard', 'mill', 'chimney']);
+    expect(keysOf(await list('/api/jobs', { sort: 'startDate', order: 'desc', status: 'scheduled' }))).toEqual(['chimney', 'mill', 'orchard']);
+  });
+
+  it('filters by status, crew and work type', async () => {
+    expect(keysOf(await jobs({ status: 'scheduled' }))).toEqual(['chimney', 'orchard', 'mill']);
+    expect(keysOf(await jobs({ status: 'enquiry' }))).toEqual(['porch']);
+    expect(keysOf(await jobs({ status: 'quoted' }))).toEqual(['steps']);
+    expect(await jobs({ status: 'invoiced' })).toMatchObject({ items: [], total: 0 });
+    expect(keysOf(await jobs({ crewId: crewIds.North! }))).toEqual(['chimney', 'orchard']);
+    expect(keysOf(await jobs({ crewId: crewIds.South! }))).toEqual(['mill']);
+    expect(keysOf(await jobs({ workType: 'brickwork' }))).toEqual(['steps', 'mill']);
+    expect(keysOf(await jobs({ workType: 'chimney' }))).toEqual(['chimney']);
+    expect(await jobs({ clientId: clientIds['Alder Farm']! })).toMatchObject({ total: 2 });
+  });
+
+  it('keeps the jobs whose days overlap the date range, counting both ends', async () => {
+    expect(keysOf(await jobs({ from: '2027-03-02', to: '2027-03-02' }))).toEqual(['orchard']);
+    expect(keysOf(await jobs({ from: '2027-03-03', to: '2027-03-12' }))).toEqual([]);
+    expect(keysOf(await jobs({ from: '2027-03-12', to: '2027-03-15' }))).toEqual(['mill']);
+    expect(keysOf(await jobs({ from: '2027-03-01', to: '2027-04-30' }))).toEqual(['chimney', 'orchard', 'mill']);
+    expect(keysOf(await jobs({ from: '2027-03-16' }))).toEqual(['chimney', 'mill']);
+    expect(keysOf(await jobs({ to: '2027-03-15' }))).toEqual(['orchard', 'mill']);
+  });
+
+  it('searches the reference, the client name and the site address without regard to case', async () => {
+    expect(keysOf(await jobs({ q: references.chimney!.toLowerCase() }))).toEqual(['chimney']);
+    expect(keysOf(await jobs({ q: 'CEDAR lodge' }))).toEqual(['porch']);
+    expect(keysOf(await jobs({ q: 'alder farm' }))).toEqual(['orchard', 'mill']);
+    expect(keysOf(await jobs({ q: 'chapel walk' }))).toEqual(['steps']);
+    expect(keysOf(await jobs({ q: 'kiln' }))).toEqual(['chimney']);
+    expect(await jobs({ q: 'no such place' })).toMatchObject({ items: [], total: 0 });
+  });
+
+  it('combines filters, and pages within them', async () => {
+    expect(keysOf(await jobs({ status: 'scheduled', crewId: crewIds.North!, workType: 'chimney' }))).toEqual(['chimney']);
+    expect(keysOf(await jobs({ crewId: crewIds.North!, from: '2027-03-01', to: '2027-03-31' }))).toEqual(['orchard']);
+    expect(keysOf(await jobs({ q: 'alder', workType: 'brickwork' }))).toEqual(['mill']);
+    expect(keysOf(await jobs({ crewId: crewIds.South!, workType: 'chimney' }))).toEqual([]);
+    const paged = await jobs({ status: 'scheduled', q: 'alder', pageSize: 1, page: 2 });
+    expect(paged).toMatchObject({ total: 2, page: 2, pageSize: 1 });
+    expect(keysOf(paged)).toEqual(['mill']);
+  });
+
+  it.each([
+    ['status', { status: 'underway' }],
+    ['crewId', { crewId: 'north' }],
+    ['workType', { workType: 'plumbing' }],
+    ['from', { from: '2027-02-30' }],
+  ])('answers a bad %s with a problem naming it', async (field, query) => {
+    const res = await request(h.app).get('/api/jobs').query(query).set(owner.auth).expect(400);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect((res.body.errors as Array<{ path: string }>).map((e) => e.path)).toContain(`query.${field}`);
+  });
+
+  it.each(['scheduled', 'on-site'])('refuses to mark a booked job %s while it has no days on the board', async (status) => {
+    const job = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: clientIds['Cedar Lodge'], siteId: (await list('/api/sites', { q: 'quarry row' })).items[0]!.id, title: 'Lime pointing', workTypes: ['repointing'], estimatedWorkingDays: 1 })
+      .expect(201);
+    await request(h.app).post(`/api/jobs/${job.body.id}/status`).set(owner.auth).send({ status: 'booked' }).expect(200);
+    const res = await request(h.app).post(`/api/jobs/${job.body.id}/status`).set(owner.auth).send({ status }).expect(409);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(res.body).toMatchObject({ status: 409, code: 'illegal-transition', type: expect.any(String), title: expect.any(String) });
+    expect(res.body.detail).toMatch(/board/);
+    expect((await request(h.app).get(`/api/jobs/${job.body.id}`).set(owner.auth).expect(200)).body.status).toBe('booked');
+  });
+});
