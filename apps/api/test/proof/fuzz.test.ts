@@ -189,4 +189,27 @@ describe('fuzzed input', () => {
     expect(cases).toBeGreaterThan(routes.length * 8);
     expect(failures, failures.join('\n\n')).toEqual([]);
   }, 240_000);
+
+  it('answers any text sent as a price-list file with the import or a problem, never 500, and a refused file imports nothing', async () => {
+    const header = fc.constantFrom('name,unit,unitPricePence,isVatable\n', 'name,unit\n', '', '\uFEFFname,unit,unitPricePence\n', 'a,a,a\n');
+    const cell = fc.oneof(
+      fc.string({ unit: 'grapheme', maxLength: 30 }),
+      fc.constantFrom('', '"', '""', '"a,b"', '=1+1', '-5', '1e999', '12.345', 'NaN', 'true', '\u0000', 'x'.repeat(5_000)),
+    );
+    const line = fc.tuple(fc.array(cell, { minLength: 1, maxLength: 6 }), fc.constantFrom(',', ';', '\t')).map(([cells, separator]) => cells.join(separator));
+    const file = fc.tuple(header, fc.array(line, { maxLength: 8 }), fc.constantFrom('\n', '\r\n', '\r')).map(([head, lines, end]) => head + lines.join(end));
+    await fc.assert(
+      fc.asyncProperty(file, async (csv) => {
+        const before = await rowCounts(h.dataSource);
+        const res = await request(base).post('/api/materials/import').set(owner.auth).set('Content-Type', 'text/csv').send(csv);
+        const why = `${res.status} ${JSON.stringify(res.body).slice(0, 300)} for ${JSON.stringify(csv.slice(0, 200))}`;
+        expect([200, 400, 413], why).toContain(res.status);
+        if (res.status !== 200) {
+          expect(res.headers['content-type'], why).toMatch(/application\/problem\+json/);
+          expect(await rowCounts(h.dataSource), why).toEqual(before);
+        }
+      }),
+      { seed: SEED, numRuns: 40 },
+    );
+  }, 120_000);
 });
