@@ -150,6 +150,65 @@ describe('conflicts', () => {
   });
 });
 
+describe('editing leave and closures', () => {
+  // Each probe is a new job on the same crew, so the earlier probes' days are booked already: that double-booking is confirmed.
+  const daysOfNewJob = async (title: string, startDate: string) =>
+    (await place({ jobId: await newBookedJob(title, 3), crewId: ids.crewId, startDate, confirmDoubleBooking: true }).expect(201)).body.assignment.days as string[];
+  const leaveOn = async (from: string, to: string) => (await board(from, to)).crews[0]!.leave;
+
+  it("moves the crew's leave rows and the days of a job placed next when the entry's repeat and dates change, and gives them back when it is deleted", async () => {
+    const created = await request(h.app).post('/api/time-off').set(owner.auth)
+      .send({ scope: 'crew', crewId: ids.crewId, label: 'Alternate Fridays', startDate: '2027-05-28', endDate: '2027-05-28', repeats: 'fortnightly' })
+      .expect(201);
+    expect(await leaveOn('2027-05-24', '2027-06-18')).toEqual([
+      { date: '2027-05-28', label: 'Alternate Fridays' },
+      { date: '2027-06-11', label: 'Alternate Fridays' },
+    ]);
+    // Fortnightly, Friday 4 June is a working day.
+    expect(await daysOfNewJob('Before the edit', '2027-06-03')).toEqual(['2027-06-03', '2027-06-04', '2027-06-07']);
+
+    const weekly = await request(h.app).put(`/api/time-off/${created.body.id}`).set(owner.auth)
+      .send({ scope: 'crew', crewId: ids.crewId, label: 'Fridays off', startDate: '2027-05-28', endDate: '2027-05-28', repeats: 'weekly', version: created.body.version })
+      .expect(200);
+    expect(await leaveOn('2027-05-24', '2027-06-18')).toEqual(
+      ['2027-05-28', '2027-06-04', '2027-06-11', '2027-06-18'].map((date) => ({ date, label: 'Fridays off' })),
+    );
+    expect(await daysOfNewJob('After the weekly edit', '2027-06-03')).toEqual(['2027-06-03', '2027-06-07', '2027-06-08']);
+
+    await request(h.app).put(`/api/time-off/${created.body.id}`).set(owner.auth)
+      .send({ scope: 'crew', crewId: ids.crewId, label: 'Thursdays off', startDate: '2027-06-03', endDate: '2027-06-03', repeats: 'weekly', repeatUntil: '2027-06-10', version: weekly.body.version })
+      .expect(200);
+    expect(await leaveOn('2027-05-24', '2027-06-25')).toEqual([
+      { date: '2027-06-03', label: 'Thursdays off' },
+      { date: '2027-06-10', label: 'Thursdays off' },
+    ]);
+    expect(await daysOfNewJob('After the date edit', '2027-06-03')).toEqual(['2027-06-04', '2027-06-07', '2027-06-08']);
+    expect(await daysOfNewJob('Past the last repeat', '2027-06-17')).toEqual(['2027-06-17', '2027-06-18', '2027-06-21']);
+
+    await request(h.app).delete(`/api/time-off/${created.body.id}`).set(owner.auth).expect(204);
+    expect(await leaveOn('2027-05-24', '2027-06-25')).toEqual([]);
+    expect(await daysOfNewJob('After the delete', '2027-06-03')).toEqual(['2027-06-03', '2027-06-04', '2027-06-07']);
+  });
+
+  it('moves a firm closure on the board and out of the next job when its dates change, and opens the day again when deleted', async () => {
+    const day = async (date: string) => (await board('2027-03-01', '2027-03-05')).days.find((d) => d.date === date);
+    const closure = await request(h.app).post('/api/time-off').set(owner.auth)
+      .send({ scope: 'firm', label: 'Yard stocktake', startDate: '2027-03-03', endDate: '2027-03-03' }).expect(201);
+    expect(await day('2027-03-03')).toEqual({ date: '2027-03-03', isWorkingDay: false, offReason: 'Yard stocktake' });
+    expect(await daysOfNewJob('Around the stocktake', '2027-03-02')).toEqual(['2027-03-02', '2027-03-04', '2027-03-05']);
+
+    await request(h.app).put(`/api/time-off/${closure.body.id}`).set(owner.auth)
+      .send({ scope: 'firm', label: 'Yard stocktake', startDate: '2027-03-04', endDate: '2027-03-05', version: closure.body.version }).expect(200);
+    expect(await day('2027-03-03')).toEqual({ date: '2027-03-03', isWorkingDay: true, offReason: null });
+    expect(await day('2027-03-05')).toEqual({ date: '2027-03-05', isWorkingDay: false, offReason: 'Yard stocktake' });
+    expect(await daysOfNewJob('After the stocktake moved', '2027-03-02')).toEqual(['2027-03-02', '2027-03-03', '2027-03-08']);
+
+    await request(h.app).delete(`/api/time-off/${closure.body.id}`).set(owner.auth).expect(204);
+    expect(await day('2027-03-05')).toEqual({ date: '2027-03-05', isWorkingDay: true, offReason: null });
+    expect(await daysOfNewJob('With no stocktake', '2027-03-02')).toEqual(['2027-03-02', '2027-03-03', '2027-03-04']);
+  });
+});
+
 describe('crew roles on the board', () => {
   it("shows a crew lead only their own crew's row and jobs, and refuses them moves", async () => {
     const otherCrew = await request(h.app).post('/api/crews').set(owner.auth).send({ name: 'Other crew', colour: '#aa3300' }).expect(201);
