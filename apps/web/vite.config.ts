@@ -80,8 +80,9 @@ export default defineConfig({
             // The payload schemas travel with zod, apart from the words screens show (shared/src/terms), so a screen
             // with no form to check (the crew's phone, at first) loads neither.
             { name: 'schemas', test: /node_modules[\\/]zod[\\/]|[\\/]packages[\\/]shared[\\/]src[\\/]schemas[\\/]/ },
-            // Ahead of the schemas group, which would otherwise take these in with the schemas that import them.
-            { name: 'terms', test: /[\\/]packages[\\/]shared[\\/]src[\\/]terms[\\/]/, priority: 1 },
+            // Ahead of the schemas group, which would otherwise take these in with the schemas that import them; with
+            // them the unit conversions and rounding screens show values in (the board's weather reasons use them).
+            { name: 'terms', test: /[\\/]packages[\\/]shared[\\/]src[\\/](terms[\\/]|rules[\\/]units\.ts$)/, priority: 1 },
           ],
         },
       },

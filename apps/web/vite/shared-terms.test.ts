@@ -17,4 +17,11 @@ describe("shared's terms", () => {
     const imports = [...code.matchAll(/^\s*(?:import|export)\s[^;]*?from\s+'([^']+)'/gm)].map((match) => match[1]!);
     expect(imports.filter((path) => !/^\.\/[\w-]+\.js$/.test(path))).toEqual([]);
   });
+
+  // The unit conversions and rounding build with the terms too (the board's weather reasons show them), so they
+  // must bring nothing in either.
+  it('are joined by rules/units.ts, which imports nothing', () => {
+    const code = readFileSync(new URL('../rules/units.ts', termsDir), 'utf8');
+    expect([...code.matchAll(/^\s*(?:import|export)\s[^;]*?from\s+'([^']+)'/gm)]).toEqual([]);
+  });
 });

@@ -3,8 +3,9 @@ import { activities, heightActivities, mortarActivities, mortarKinds, type Activ
 import { checkConcreteColdWeather, checkConcreteFreezing, checkUkConcreteDischarge } from './concrete-rules.js';
 import { parseInstant, type IsoInstant } from './dates.js';
 import {
-  blockedBuffer, buildContext, fmt, forecastHourSchema, usableHoursShown, type AssessmentNote, type ForecastHour, type HourContext, type RuleReason, type Verdict,
+  blockedBuffer, buildContext, fmt, forecastHourSchema, type AssessmentNote, type ForecastHour, type HourContext, type RuleReason, type Verdict,
 } from './forecast.js';
+import { usableHoursShown } from './units.js';
 import {
   checkFrostProtection,
   checkUkMortarCold,

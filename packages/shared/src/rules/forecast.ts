@@ -423,10 +423,6 @@ export function buildContext(
   return ctx;
 }
 
-/** Usable hours as shown in words: rounded down to a tenth, so a day just short of the minimum never reads as meeting it. */
-export function usableHoursShown(hours: number): number {
-  return Math.floor(hours * 10 + 1e-9) / 10;
-}
 
 export function fmt(n: number, dp = 1): string {
   const s = n.toFixed(dp);

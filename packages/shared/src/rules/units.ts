@@ -13,6 +13,11 @@ export const knotsToMs = (kn: number): number => kn * MS_PER_KNOT;
 export const cToF = (c: number): number => (c * 9) / 5 + 32;
 export const fToC = (f: number): number => ((f - 32) * 5) / 9;
 
+/** Usable hours as shown in words: rounded down to a tenth, so a day just short of the minimum never reads as meeting it. */
+export function usableHoursShown(hours: number): number {
+  return Math.floor(hours * 10 + 1e-9) / 10;
+}
+
 export type BeaufortName =
   | 'Calm'
   | 'Light air'
