@@ -1,7 +1,7 @@
 import request from 'supertest';
 import sharp from 'sharp';
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
-import type { AccessBookingDto, BoardDto, PhotoDto, ScaffoldInspectionDto } from '@hodboard/shared';
+import type { AccessBookingDto, BoardDto, JobHistoryEntryDto, PhotoDto, ScaffoldInspectionDto } from '@hodboard/shared';
 import { ForecastHourRow, ScaffoldInspection } from '../src/entities/index.js';
 import { createMailCatcher, type CaughtMail, type MailCatcher } from '../src/fakes/mail-catcher.js';
 import { scenarioHours } from '../src/fakes/weather-scenarios.js';
@@ -64,6 +64,34 @@ describe('a booking that is only requested', () => {
     await moveJob('2027-03-10');
     expect(await bookingNow(booking.id)).toMatchObject({ requestedErect: '2027-03-09', requestedStrike: '2027-03-15', pendingChange: null });
     expect(h.mailer.outbox.filter((m) => m.to === 'hire@loftypoles.example')).toHaveLength(0);
+  });
+});
+
+describe("the job's history", () => {
+  const historyOf = async (jobId: string) => (await request(h.app).get(`/api/jobs/${jobId}/history`).set(owner.auth).expect(200)).body as JobHistoryEntryDto[];
+
+  it("tells what became of the job's access beside the job's own changes, in words", async () => {
+    const booking = (await book()).body as AccessBookingDto;
+    await moveJob('2027-03-10');
+    await request(h.app).post(`/api/access-bookings/${booking.id}/state`).set(owner.auth).send({ state: 'confirmed', version: (await bookingNow(booking.id)).version }).expect(200);
+
+    const history = await historyOf(ids.jobId);
+    expect(history.filter((entry) => entry.about === 'access').map((entry) => entry.summary).slice(0, 3)).toEqual([
+      'Scaffold agreed with the supplier',
+      'Scaffold dates moved with the job, Tue 9 Mar to Mon 15 Mar',
+      'Scaffold asked for',
+    ]);
+    expect(history.filter((entry) => entry.about === 'job').map((entry) => entry.action)).toContain('rescheduled');
+  });
+
+  it("leaves out access booked only for another job", async () => {
+    const before = (await historyOf(ids.jobId)).length;
+    const other = await request(h.app).post('/api/jobs').set(owner.auth)
+      .send({ clientId: ids.clientId, siteId: ids.siteId, title: 'Rebuild chimney stack', workTypes: ['chimney'], estimatedWorkingDays: 2, accessNeeds: ['scaffold'] })
+      .expect(201);
+    await request(h.app).post('/api/access-bookings').set(owner.auth).send({ jobIds: [other.body.id], accessType: 'scaffold', supplierId }).expect(201);
+    expect(await historyOf(ids.jobId)).toHaveLength(before);
+    expect((await historyOf(other.body.id)).map((entry) => entry.summary)).toContain('Scaffold asked for');
   });
 });
 

@@ -1,5 +1,6 @@
 import type { DataSource, EntityManager, SelectQueryBuilder } from 'typeorm';
 import {
+  accessTypeLabels,
   can,
   canTransition,
   dayRangeLabel,
@@ -10,10 +11,11 @@ import {
   type JobListQuery,
   type JobStatus,
   type JobStatusChangeInput,
+  type AccessType,
   type Page,
 } from '@hodboard/shared';
 import type { z } from 'zod';
-import { Assignment, AuditEvent, Client, Crew, Job, Site, User } from '../entities/index.js';
+import { AccessBooking, Assignment, AuditEvent, Client, Crew, Job, Site, User } from '../entities/index.js';
 import { errors } from '../errors.js';
 import type { EventBus } from '../lib/event-bus.js';
 import type { AccessService, AfterCommit } from './access-service.js';
@@ -131,23 +133,36 @@ export class JobService {
 
   async history(actor: Actor, id: string): Promise<JobHistoryEntryDto[]> {
     await this.get(actor, id);
-    const rows = await new FirmScope(this.dataSource.manager, actor.firmId)
+    const scope = new FirmScope(this.dataSource.manager, actor.firmId);
+    // The access booked for the job belongs to its story too: requested, agreed, up, inspected, struck.
+    const bookings = await scope.query(AccessBooking, 'b').andWhere(':id = ANY(b.job_ids)', { id }).getMany();
+    const kindOf = new Map(bookings.map((booking) => [booking.id, booking.accessType]));
+    const rows = await scope
       .query(AuditEvent, 'event')
       .leftJoinAndMapOne('event.actor', User, 'actor', 'actor.id = event.actor_user_id')
-      .andWhere('event.entity = :entity AND event.entity_id = :id', { entity: 'job', id })
+      .andWhere(
+        bookings.length
+          ? "((event.entity = 'job' AND event.entity_id = :id) OR (event.entity = 'access-booking' AND event.entity_id IN (:...bookingIds)))"
+          : "event.entity = 'job' AND event.entity_id = :id",
+        { id, bookingIds: [...kindOf.keys()] },
+      )
       .orderBy('event.at', 'DESC')
       .addOrderBy('event.id', 'DESC')
       .take(200)
       .getMany();
-    return rows.map((event) => ({
-      id: event.id,
-      at: event.at.toISOString(),
-      actorName: (event as AuditEvent & { actor?: User }).actor?.name ?? null,
-      action: event.action,
-      summary: describeChange(event),
-      before: event.before,
-      after: event.after,
-    }));
+    return rows.map((event) => {
+      const kind = kindOf.get(event.entityId);
+      return {
+        id: event.id,
+        at: event.at.toISOString(),
+        actorName: (event as AuditEvent & { actor?: User }).actor?.name ?? null,
+        about: kind ? 'access' : 'job',
+        action: event.action,
+        summary: kind ? describeAccessChange(event, kind) : describeChange(event),
+        before: event.before,
+        after: event.after,
+      };
+    });
   }
 
   private baseQuery(manager: EntityManager, actor: Actor): SelectQueryBuilder<Job> {
@@ -205,6 +220,30 @@ function describeChange(event: AuditEvent): string {
     case 'moved-crew': return `Moved to another crew: ${span(after.days)}`;
     case 'unscheduled': return 'Taken off the board';
     default: return event.action.replaceAll('-', ' ');
+  }
+}
+
+function describeAccessChange(event: AuditEvent, type: AccessType): string {
+  const kind = accessTypeLabels[type];
+  const after = event.after ?? {};
+  const dates = (from: unknown, to: unknown) => (typeof from === 'string' && typeof to === 'string' ? `, ${dayRangeLabel(from, to)}` : '');
+  switch (event.action) {
+    case 'created': return `${kind} asked for`;
+    case 'state-requested': return `${kind} back to asked for`;
+    case 'state-confirmed': return `${kind} agreed with the supplier`;
+    case 'state-erected': return `${kind} up`;
+    case 'state-struck': return `${kind} struck`;
+    case 'state-cancelled': return `${kind} booking cancelled`;
+    case 'handover-recorded': return `${kind} handed over`;
+    case 'inspected': return `${kind} inspected`;
+    case 'inspection-discarded': return `${kind} inspection record removed`;
+    case 'followed-job': return `${kind} dates moved with the job${dates(after.erect, after.strike)}`;
+    case 'change-requested': return `New ${kind.toLowerCase()} dates asked of the supplier${dates(after.erect, after.strike)}`;
+    case 'supplier-accepted': return `Supplier agreed the new ${kind.toLowerCase()} dates${dates(after.confirmedErect, after.confirmedStrike)}`;
+    case 'supplier-countered': return `Supplier offered other ${kind.toLowerCase()} dates${dates(after.confirmedErect, after.confirmedStrike)}`;
+    case 'job-cancelled': return `${kind} booking no longer covers a cancelled job`;
+    case 'cancelled-with-job': return `${kind} booking cancelled with the job`;
+    default: return `${kind}: ${event.action.replaceAll('-', ' ')}`;
   }
 }
 

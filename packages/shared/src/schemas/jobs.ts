@@ -108,6 +108,8 @@ export interface JobHistoryEntryDto {
   id: string;
   at: string;
   actorName: string | null;
+  /** The job itself, or access booked for it. */
+  about: 'job' | 'access';
   action: string;
   summary: string;
   before: Record<string, unknown> | null;
