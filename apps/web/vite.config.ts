@@ -3,7 +3,7 @@ import { defineConfig, type Plugin } from 'vite';
 import vue from '@vitejs/plugin-vue';
 import { VitePWA } from 'vite-plugin-pwa';
 import { crewPwa } from './pwa.config.ts';
-import { prebuiltPrimeVueTheme } from './vite/primevue-theme.ts';
+import { prebuiltPrimeVueTheme, primevueThemeStylesLeftOut } from './vite/primevue-theme.ts';
 
 const apiTarget = 'http://127.0.0.1:3000';
 
@@ -48,7 +48,7 @@ function preloadAppAfterShell(): Plugin {
 }
 
 export default defineConfig({
-  plugins: [vue(), VitePWA(crewPwa), prebuiltPrimeVueTheme(fileURLToPath(new URL('./src', import.meta.url))), preloadAppAfterShell()],
+  plugins: [vue(), VitePWA(crewPwa), primevueThemeStylesLeftOut(), prebuiltPrimeVueTheme(fileURLToPath(new URL('./src', import.meta.url))), preloadAppAfterShell()],
   resolve: {
     alias: [
       { find: '@', replacement: fileURLToPath(new URL('./src', import.meta.url)) },

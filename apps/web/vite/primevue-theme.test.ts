@@ -3,7 +3,7 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { componentsUsed, primevueThemeCss, sourceFiles } from './primevue-theme.ts';
+import { componentsUsed, primevueThemeCss, primevueThemeStylesLeftOut, sourceFiles } from './primevue-theme.ts';
 
 const require = createRequire(import.meta.url);
 const primevueDir = path.dirname(path.dirname(require.resolve('primevue/config')));
@@ -32,3 +32,20 @@ describe('the prebuilt PrimeVue theme', () => {
     expect(css).toMatch(/--p-button-danger-background:\s*var\(--p-red-700\)/);
   });
 });
+
+describe("the browser bundle's PrimeVue styles", () => {
+  it("gets an empty theme string for each component's style import, and leaves every other import alone", async () => {
+    const plugin = primevueThemeStylesLeftOut();
+    const resolveId = plugin.resolveId as (id: string) => string | undefined;
+    const load = plugin.load as (id: string) => string | undefined;
+    const stub = resolveId('@primeuix/styles/button');
+    expect(stub).toBeDefined();
+    expect(resolveId('@primeuix/styles/datatable')).toBe(stub);
+    expect(load(stub!)).toBe("export const style = '';");
+    expect(resolveId('@primeuix/styled')).toBeUndefined();
+    expect(resolveId('primevue/button/style')).toBeUndefined();
+    // The stylesheet built in Node still has the component styles the stub leaves out of the bundle.
+    expect(await primevueThemeCss(['button'])).toMatch(/\.p-button\s*\{/);
+  });
+});
+

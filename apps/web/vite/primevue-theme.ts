@@ -95,3 +95,24 @@ export function prebuiltPrimeVueTheme(srcDir: string): Plugin {
     },
   };
 }
+
+const STYLE_SOURCE = /^@primeuix\/styles\/[a-z]+$/;
+const NO_STYLE_ID = '\0primevue-no-theme-style';
+
+/**
+ * Each PrimeVue component's style module imports its theme CSS as a string (@primeuix/styles/<name>) for PrimeVue to
+ * build the theme in the browser. With `theme: 'none'` PrimeVue never reads it (only the small core CSS each style
+ * module carries itself), and the prebuilt stylesheet above has it already; this gives the browser bundle an empty
+ * string in its place, some 30 KB gzip less on a first screen. Building the stylesheet in Node is not affected.
+ */
+export function primevueThemeStylesLeftOut(): Plugin {
+  return {
+    name: 'hodboard:primevue-theme-styles-left-out',
+    // The build only: the unit tests make the stylesheet in Vite's own module runner, which must see the real CSS.
+    apply: 'build',
+    enforce: 'pre',
+    resolveId: (id) => (STYLE_SOURCE.test(id) ? NO_STYLE_ID : undefined),
+    load: (id) => (id === NO_STYLE_ID ? "export const style = '';" : undefined),
+  };
+}
+
