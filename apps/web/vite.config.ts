@@ -76,10 +76,23 @@ export default defineConfig({
         codeSplitting: {
           groups: [
             { name: 'vue-vendor', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]/ },
-            { name: 'primevue-core', test: /node_modules[\\/](@primeuix|@primevue[\\/]core)[\\/]/ },
+            // With PrimeVue's core, the small components and icons most screens show, rather than a chunk each: on a slow
+            // signal every extra file of a first screen costs a round trip.
+            {
+              name: 'primevue-core',
+              test: /node_modules[\\/](@primeuix|@primevue[\\/](core|icons)|primevue[\\/](button|dialog|focustrap|message|skeleton|tag|textarea|inputtext|useconfirm|usetoast|overlayeventbus|portal|progressbar|badge))[\\/]/,
+            },
             // The payload schemas travel with zod, apart from the words screens show (shared/src/terms), so a screen
             // with no form to check (the crew's phone, at first) loads neither.
             { name: 'schemas', test: /node_modules[\\/]zod[\\/]|[\\/]packages[\\/]shared[\\/]src[\\/]schemas[\\/]/ },
+            // The app's small modules of data, offline and formatting helpers, one file instead of one each; only these,
+            // not what they import: the page's first script shares src/boot/early-refresh.ts with the http client, and
+            // must not wait for this file to send the early renewal.
+            {
+              name: 'app-common',
+              test: /[\\/]apps[\\/]web[\\/]src[\\/](api|offline|utils)[\\/]|node_modules[\\/]idb[\\/]/,
+              includeDependenciesRecursively: false,
+            },
             // Ahead of the schemas group, which would otherwise take these in with the schemas that import them; with
             // them the unit conversions and rounding screens show values in (the board's weather reasons use them).
             { name: 'terms', test: /[\\/]packages[\\/]shared[\\/]src[\\/](terms[\\/]|rules[\\/]units\.ts$)/, priority: 1 },
