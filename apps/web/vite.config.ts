@@ -24,6 +24,8 @@ function preloadAppAfterShell(): Plugin {
         const chunks = Object.values(bundle).filter((output) => output.type === 'chunk');
         const app = chunks.find((chunk) => chunk.facadeModuleId?.endsWith('/src/main.ts'));
         if (!app) throw new Error('no chunk for src/main.ts in the build: the page would preload nothing');
+        // The first script runs the framework and the component library a turn ahead of the app (src/boot/start.ts).
+        const turns = chunks.filter((chunk) => chunk.moduleIds.some((id) => /\/src\/boot\/(framework|component-library)\.ts$/.test(id)));
         const scripts = new Set<string>();
         const styles = new Set<string>();
         const visit = (fileName: string) => {
@@ -34,6 +36,7 @@ function preloadAppAfterShell(): Plugin {
           for (const css of chunk.viteMetadata?.importedCss ?? []) styles.add(css);
           for (const imported of chunk.imports) visit(imported);
         };
+        for (const turn of turns) visit(turn.fileName);
         visit(app.fileName);
         const base = '/';
         return [
@@ -75,12 +78,13 @@ export default defineConfig({
         // Vendor code changes far less often than views; separate chunks keep browser caches warm across releases.
         codeSplitting: {
           groups: [
-            { name: 'vue-vendor', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]/ },
+            // With them the modules the page's first script imports to run them a turn ahead of the app (src/boot/start.ts).
+            { name: 'vue-vendor', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]|[\\/]src[\\/]boot[\\/]framework\.ts$/ },
             // With PrimeVue's core, the small components and icons most screens show, rather than a chunk each: on a slow
             // signal every extra file of a first screen costs a round trip.
             {
               name: 'primevue-core',
-              test: /node_modules[\\/](@primeuix|@primevue[\\/](core|icons)|primevue[\\/](button|dialog|focustrap|message|skeleton|tag|textarea|inputtext|useconfirm|usetoast|overlayeventbus|portal|progressbar|badge))[\\/]/,
+              test: /node_modules[\\/](@primeuix|@primevue[\\/](core|icons)|primevue[\\/](button|dialog|focustrap|message|skeleton|tag|textarea|inputtext|useconfirm|usetoast|overlayeventbus|portal|progressbar|badge))[\\/]|[\\/]src[\\/]boot[\\/]component-library\.ts$/,
             },
             // The payload schemas travel with zod, apart from the words screens show (shared/src/terms), so a screen
             // with no form to check (the crew's phone, at first) loads neither.
