@@ -1,5 +1,5 @@
 import type { Locator, Page, TestInfo } from '@playwright/test';
-import { test, expect, apiAs, confirmIfAsked, fillDate, isPhone, signIn, shot, DEMO_USERS, type Api } from './fixtures';
+import { test, expect, addDays, apiAs, confirmIfAsked, fillDate, isPhone, signIn, shot, DEMO_USERS, type Api } from './fixtures';
 
 interface CreatedJob {
   id: string;
@@ -8,13 +8,52 @@ interface CreatedJob {
 }
 
 /** A fresh booked job of `days` working days, so it lands in the tray. */
-async function bookedJob(api: Api, title: string, days: number): Promise<CreatedJob> {
+async function bookedJob(api: Api, title: string, days: number, priority: 'normal' | 'urgent' = 'normal'): Promise<CreatedJob> {
   const sites = await api.get<{ items: Array<{ id: string; clientId: string }> }>('/api/sites?pageSize=1');
   const site = sites.items[0]!;
   const job = await api.post<CreatedJob>('/api/jobs', {
-    clientId: site.clientId, siteId: site.id, title, workTypes: ['garden-wall'], estimatedWorkingDays: days,
+    clientId: site.clientId, siteId: site.id, title, workTypes: ['garden-wall'], estimatedWorkingDays: days, priority,
   });
   return api.post<CreatedJob>(`/api/jobs/${job.id}/status`, { status: 'booked', version: job.version });
+}
+
+interface SavedAssignment {
+  id: string;
+  jobId: string;
+  crewId: string;
+  startDate: string;
+  workingDays: number;
+  days: string[];
+}
+
+interface SavedBoard {
+  days: Array<{ date: string; isWorkingDay: boolean }>;
+  crews: Array<{ id: string; name: string; leave: Array<{ date: string }> }>;
+  assignments: SavedAssignment[];
+  trayJobIds: string[];
+}
+
+function readBoard(api: Api, from: string, to: string): Promise<SavedBoard> {
+  return api.get<SavedBoard>(`/api/board?from=${from}&to=${to}`);
+}
+
+function crewNamed(board: SavedBoard, name: string): SavedBoard['crews'][number] {
+  const crew = board.crews.find((c) => c.name === name);
+  expect(crew, `the demo firm has ${name}`).toBeDefined();
+  return crew!;
+}
+
+/** The days in range that crew works: the firm's working days less the whole crew's leave. */
+function workingDaysOf(board: SavedBoard, crewName: string): string[] {
+  const leave = new Set(crewNamed(board, crewName).leave.map((day) => day.date));
+  return board.days.filter((day) => day.isWorkingDay && !leave.has(day.date)).map((day) => day.date);
+}
+
+/** A fresh job put straight on a crew, as if the office had placed it before this page opened. */
+async function placedJob(api: Api, title: string, days: number, crewId: string, startDate: string): Promise<CreatedJob> {
+  const job = await bookedJob(api, title, days);
+  await api.post('/api/assignments', { jobId: job.id, crewId, startDate, confirmDoubleBooking: true });
+  return job;
 }
 
 function unique(info: TestInfo): string {
@@ -41,6 +80,73 @@ async function crewCells(page: Page, crew: string): Promise<Array<{ date: string
  */
 async function dropOn(source: Locator, cell: Locator, grabAt?: { x: number; y: number }): Promise<void> {
   await source.dragTo(cell, { force: true, ...(grabAt ? { sourcePosition: grabAt } : {}) });
+}
+
+interface Box {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+interface Point {
+  x: number;
+  y: number;
+}
+
+/**
+ * Drags with the mouse from a point on `source` to a point on `target`, each worked out from its element's box, after
+ * scrolling so that both are on screen at once: if the page scrolls while the button is down, the browser drops the drag.
+ */
+async function dragWithMouse(page: Page, source: Locator, grab: (box: Box) => Point, target: Locator, drop: (box: Box, from: Point) => Point): Promise<void> {
+  await source.scrollIntoViewIfNeeded();
+  const ends = async () => {
+    const from = grab((await source.boundingBox())!);
+    return { from, to: drop((await target.boundingBox())!, from) };
+  };
+  let { from, to } = await ends();
+  const height = page.viewportSize()!.height;
+  const onScreen = (point: Point) => point.y > 10 && point.y < height - 10;
+  if (!onScreen(from) || !onScreen(to)) {
+    await page.evaluate((by) => window.scrollBy(0, by), (from.y + to.y) / 2 - height / 2);
+    ({ from, to } = await ends());
+  }
+  expect(onScreen(from) && onScreen(to), `both ends of the drag on screen: ${JSON.stringify({ from, to })}`).toBe(true);
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  await page.mouse.move(from.x + 10, from.y, { steps: 3 });
+  await page.mouse.move(to.x, to.y, { steps: 12 });
+  await page.mouse.up();
+}
+
+const middleOf = (box: Box): Point => ({ x: box.x + box.width / 2, y: box.y + box.height / 2 });
+/** Inside a bar's first day, so a move keeps that day under the pointer. */
+const firstDayOf = (box: Box): Point => ({ x: box.x + 12, y: box.y + 12 });
+/** A day cell spans every lane of its row; the row reads the day from x alone, so stay at the height the drag began. */
+const sameRowAs = (box: Box, from: Point): Point => ({ x: box.x + box.width / 2, y: from.y });
+
+/**
+ * Waits for a place or move dialog to close, accepting the double-booking question if the server asks it. The dialog
+ * stays open while the question is on its way, so "dialog still visible" cannot mean "no question coming".
+ */
+async function closesOnceConfirmed(page: Page, dialog: Locator): Promise<void> {
+  const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
+  await expect(async () => {
+    if (await bookAnyway.isVisible()) await bookAnyway.click();
+    await expect(dialog).toBeHidden({ timeout: 1_000 });
+  }).toPass({ timeout: 15_000 });
+}
+
+/**
+ * Reloads the board and waits for the weather outlook and the access bookings as well as the board itself: their
+ * markers and bands add height to the lanes, so a bar located before they arrive may have moved when the button goes down.
+ */
+async function reloadBoard(page: Page): Promise<void> {
+  const answered = ['/api/board?', '/api/weather/outlook', '/api/access-bookings'].map((path) =>
+    page.waitForResponse((res) => res.url().includes(path)).then((res) => res.finished()),
+  );
+  await page.reload();
+  await Promise.all(answered);
 }
 
 function savedBar(page: Page, jobId: string): Locator {
@@ -212,16 +318,204 @@ test.describe('board', () => {
     await dialog.getByLabel('Crew').click();
     await page.getByRole('option', { name: 'Wall crew', exact: true }).click();
     await dialog.getByRole('button', { name: /^Move/ }).click();
-    const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
-    await expect(bookAnyway.or(dialog).first()).toBeVisible();
-    if (await bookAnyway.isVisible()) await bookAnyway.click();
-    await expect(dialog).toBeHidden();
+    await closesOnceConfirmed(page, dialog);
 
     await expect.poll(async () => {
       const after = await office.get<{ assignments: Array<{ jobId: string; crewId: string; startDate: string }> }>(`/api/board?from=${from}&to=${placed.assignment.startDate}`);
       return after.assignments.find((a) => a.jobId === job.id)?.crewId;
     }).toBe(crewId('Wall crew'));
     await shot(page, 'board-phone-move');
+  });
+
+  test('the office stretches a bar by its end over a weekend, then pulls it back to one day, and both are saved', async ({ page, request }, info) => {
+    test.skip(isPhone(info), 'the end handle is on the desktop grid; phones change the length from the menu');
+    const office = await apiAs(request, 'office');
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    const from = (await page.getByTestId('board').getAttribute('data-from'))!;
+    const to = addDays(from, 13);
+    const board = await readBoard(office, from, to);
+    const working = workingDaysOf(board, 'Stack crew');
+    // A Thursday with three more working days on the board: four days from it must cross a weekend.
+    const startIndex = working.findIndex((date, index) => isoWeekday(date) === 4 && index + 3 < working.length);
+    expect(startIndex, 'a working Thursday with a week after it on the board').toBeGreaterThanOrEqual(0);
+    const lengthened = working.slice(startIndex, startIndex + 4);
+    const [start, newEnd] = [lengthened[0]!, lengthened[3]!];
+    const weekend = board.days.filter((day) => day.date > start && day.date < newEnd && isoWeekday(day.date) >= 6).map((day) => day.date);
+    expect(weekend).toHaveLength(2);
+    const job = await placedJob(office, `Retaining wall ${unique(info)}`, 2, crewNamed(board, 'Stack crew').id, start);
+
+    await reloadBoard(page);
+    const row = page.getByRole('group', { name: 'Stack crew', exact: true });
+    const bar = savedBar(page, job.id);
+    await expect(bar.locator('.segment[data-worked="true"]')).toHaveCount(2);
+
+    await dragWithMouse(page, bar.getByTestId('bar-end'), middleOf, row.locator(`.cell[data-date="${newEnd}"]`), sameRowAs);
+    await confirmIfAsked(page, bar.and(page.locator(`[data-end="${newEnd}"]`)));
+    const worked = bar.locator('.segment[data-worked="true"]');
+    await expect(worked).toHaveCount(4);
+    expect(await worked.evaluateAll((els) => els.map((el) => (el as HTMLElement).dataset.date))).toEqual(lengthened);
+    for (const day of weekend) await expect(bar.locator(`.segment[data-date="${day}"]`)).toHaveAttribute('data-worked', 'false');
+    await expect(bar).toHaveAttribute('data-start', start);
+    await expect(page.getByTestId('board-announcement')).toContainText(`${job.reference} is now on Stack crew`);
+    await expect(page.getByTestId('board-announcement')).toContainText('4 working days');
+    await bar.scrollIntoViewIfNeeded();
+    await shot(page, 'board-lengthened');
+
+    await reloadBoard(page);
+    await expect(worked).toHaveCount(4);
+    expect((await readBoard(office, from, to)).assignments.find((a) => a.jobId === job.id)).toMatchObject({ startDate: start, workingDays: 4, days: lengthened });
+
+    await dragWithMouse(page, bar.getByTestId('bar-end'), middleOf, row.locator(`.cell[data-date="${start}"]`), sameRowAs);
+    await confirmIfAsked(page, bar.and(page.locator(`[data-end="${start}"]`)));
+    await expect(worked).toHaveCount(1);
+    await expect.poll(async () => (await readBoard(office, from, to)).assignments.find((a) => a.jobId === job.id)?.workingDays).toBe(1);
+  });
+
+  test('the office drags a placed bar onto the tray and the job leaves the board for the tray', async ({ page, request }, info) => {
+    test.skip(isPhone(info), 'dragging off the grid is a desktop task; phones use the menu\'s Back to tray');
+    const office = await apiAs(request, 'office');
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    const from = (await page.getByTestId('board').getAttribute('data-from'))!;
+    const to = addDays(from, 13);
+    const board = await readBoard(office, from, to);
+    const job = await placedJob(office, `Path edging ${unique(info)}`, 2, crewNamed(board, 'Pointing crew').id, workingDaysOf(board, 'Pointing crew')[1]!);
+
+    await reloadBoard(page);
+    const bar = savedBar(page, job.id);
+    await expect(bar).toBeVisible();
+    const tray = page.getByTestId('board-tray');
+    const card = tray.getByRole('button', { name: new RegExp(`^${job.reference} `) });
+    await expect(card).toHaveCount(0);
+
+    // The tray's heading, not its middle: a long tray runs below the fold.
+    await dragWithMouse(page, bar, firstDayOf, tray, (box) => ({ x: box.x + 40, y: box.y + 16 }));
+    await expect(card).toBeVisible();
+    await expect(page.locator(`.bar[data-job-id="${job.id}"]`)).toHaveCount(0);
+    await expect(page.getByTestId('board-announcement')).toContainText(`${job.reference} is back in the tray`);
+    await shot(page, 'board-dragged-to-tray');
+
+    const after = await readBoard(office, from, to);
+    expect(after.trayJobIds).toContain(job.id);
+    expect(after.assignments.find((a) => a.jobId === job.id)).toBeUndefined();
+  });
+
+  test('the office drags a bar down to another crew\'s row and the job moves to that crew on the same day', async ({ page, request }, info) => {
+    test.skip(isPhone(info), 'dragging between rows is a desktop task; phones move a job from its menu');
+    const office = await apiAs(request, 'office');
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    const from = (await page.getByTestId('board').getAttribute('data-from'))!;
+    const to = addDays(from, 13);
+    const board = await readBoard(office, from, to);
+    const wallDays = new Set(workingDaysOf(board, 'Wall crew'));
+    const day = workingDaysOf(board, 'Stack crew').find((date) => wallDays.has(date) && isoWeekday(date) <= 3)!;
+    const job = await placedJob(office, `Brick pier ${unique(info)}`, 2, crewNamed(board, 'Stack crew').id, day);
+
+    await reloadBoard(page);
+    const stackRow = page.getByRole('group', { name: 'Stack crew', exact: true });
+    const wallRow = page.getByRole('group', { name: 'Wall crew', exact: true });
+    await expect(stackRow.locator(`.bar[data-job-id="${job.id}"]`)).toBeVisible();
+
+    // Held by its first day and dropped at the top of the other row, so the bar keeps its start.
+    await dragWithMouse(page, savedBar(page, job.id), firstDayOf, wallRow.locator(`.cell[data-date="${day}"]`), (box) => ({ x: box.x + 12, y: box.y + 12 }));
+    const moved = wallRow.locator(`.bar[data-job-id="${job.id}"][data-start="${day}"]:not([aria-busy="true"])`);
+    await confirmIfAsked(page, moved);
+    await expect(stackRow.locator(`.bar[data-job-id="${job.id}"]`)).toHaveCount(0);
+    await expect(moved.locator('.segment[data-worked="true"]')).toHaveCount(2);
+    await expect(page.getByTestId('board-announcement')).toContainText(`${job.reference} is now on Wall crew`);
+    await moved.scrollIntoViewIfNeeded();
+    await shot(page, 'board-moved-crew');
+
+    expect((await readBoard(office, from, to)).assignments.find((a) => a.jobId === job.id)).toMatchObject({
+      crewId: crewNamed(board, 'Wall crew').id, startDate: day, workingDays: 2,
+    });
+  });
+
+  test('with the keyboard, Alt and the down arrow move a job to the crew below and Alt with the up arrow brings it back', async ({ page, request }, info) => {
+    test.skip(isPhone(info), 'the grid and its keys are the desktop board');
+    const office = await apiAs(request, 'office');
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    const from = (await page.getByTestId('board').getAttribute('data-from'))!;
+    const to = addDays(from, 13);
+    await expect(page.locator('.crew-row').first()).toBeVisible();
+    const rowIds = await page.locator('.crew-row[data-crew-id]').evaluateAll((rows) => rows.map((row) => (row as HTMLElement).dataset.crewId!));
+    expect(rowIds.length).toBeGreaterThanOrEqual(2);
+    const [topId, belowId] = [rowIds[0]!, rowIds[1]!];
+    const board = await readBoard(office, from, to);
+    const [top, below] = [board.crews.find((c) => c.id === topId)!, board.crews.find((c) => c.id === belowId)!];
+    const belowDays = new Set(workingDaysOf(board, below.name));
+    const day = workingDaysOf(board, top.name).find((date) => belowDays.has(date))!;
+    const job = await placedJob(office, `Lintel swap ${unique(info)}`, 1, top.id, day);
+
+    await reloadBoard(page);
+    const topRow = page.getByRole('group', { name: top.name, exact: true });
+    const belowRow = page.getByRole('group', { name: below.name, exact: true });
+    const onTop = topRow.locator(`.bar[data-job-id="${job.id}"]:not([aria-busy="true"])`);
+    const onBelow = belowRow.locator(`.bar[data-job-id="${job.id}"]:not([aria-busy="true"])`);
+    await expect(onTop).toBeVisible();
+
+    await onTop.focus();
+    await page.keyboard.press('Alt+ArrowDown');
+    await confirmIfAsked(page, onBelow);
+    await expect(onTop).toHaveCount(0);
+    await expect(onBelow).toHaveAttribute('data-start', day);
+    // The bar is drawn afresh in the other row; the focus goes with it so the next key acts on the same job.
+    await expect(onBelow).toBeFocused();
+    await expect(page.getByTestId('board-announcement')).toContainText(`${job.reference} is now on ${below.name}`);
+    await expect.poll(async () => (await readBoard(office, from, to)).assignments.find((a) => a.jobId === job.id)?.crewId).toBe(below.id);
+
+    await page.keyboard.press('Alt+ArrowUp');
+    await confirmIfAsked(page, onTop);
+    await expect(onBelow).toHaveCount(0);
+    await expect(onTop).toBeFocused();
+    await expect.poll(async () => (await readBoard(office, from, to)).assignments.find((a) => a.jobId === job.id)?.crewId).toBe(top.id);
+  });
+
+  test('from a placed job\'s menu the office changes its length, then sends it back to the tray', async ({ page, request }, info) => {
+    const office = await apiAs(request, 'office');
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    const from = (await page.getByTestId('board').getAttribute('data-from'))!;
+    const to = addDays(from, 13);
+    const board = await readBoard(office, from, to);
+    const working = workingDaysOf(board, 'Stack crew');
+    const startIndex = working.findIndex((date, index) => isoWeekday(date) === 4 && index + 2 < working.length);
+    expect(startIndex, 'a working Thursday with two working days after it on the board').toBeGreaterThanOrEqual(0);
+    const job = await placedJob(office, `Sill repair ${unique(info)}`, 1, crewNamed(board, 'Stack crew').id, working[startIndex]!);
+
+    await reloadBoard(page);
+    // The desktop grid draws a bar, the phone list a card; both carry the assignment and open the same menu.
+    const placed = page.locator(`[data-assignment-id][data-job-id="${job.id}"]:not([aria-busy="true"])`);
+    await expect(placed).toBeVisible();
+    await placed.scrollIntoViewIfNeeded();
+    await placed.click();
+    await page.getByRole('menuitem', { name: 'Change length…' }).click();
+    const dialog = page.getByRole('dialog', { name: `Change the length of ${job.reference}` });
+    await expect(dialog).toBeVisible();
+    await expect(dialog.getByLabel('Crew')).toHaveCount(0);
+    const length = dialog.getByLabel('Working days');
+    await expect(length).toHaveValue('1');
+    // Once open, the dialog puts the focus on its close button; a value typed before then is lost when the field blurs.
+    await expect(dialog.getByRole('button', { name: 'Close' })).toBeFocused();
+    await length.fill('3');
+    await expect(length).toHaveValue('3');
+    await dialog.getByRole('button', { name: 'Save length' }).click();
+    await closesOnceConfirmed(page, dialog);
+
+    await expect.poll(async () => (await readBoard(office, from, to)).assignments.find((a) => a.jobId === job.id)?.days).toEqual(working.slice(startIndex, startIndex + 3));
+    if (isPhone(info)) await expect(placed).toContainText('3 days');
+    else await expect(placed.locator('.segment[data-worked="true"]')).toHaveCount(3);
+    await expect(page.getByTestId('board-announcement')).toContainText('3 working days');
+
+    await placed.scrollIntoViewIfNeeded();
+    await placed.click();
+    await page.getByRole('menuitem', { name: 'Back to tray' }).click();
+    const card = page.getByTestId('board-tray').getByRole('button', { name: new RegExp(`^${job.reference} `) });
+    await expect(card).toBeVisible();
+    await expect(page.locator(`[data-assignment-id][data-job-id="${job.id}"]`)).toHaveCount(0);
+    await card.scrollIntoViewIfNeeded();
+    await shot(page, 'board-menu-back-to-tray');
+    const after = await readBoard(office, from, to);
+    expect(after.trayJobIds).toContain(job.id);
+    expect(after.assignments.find((a) => a.jobId === job.id)).toBeUndefined();
   });
 
   test('on the crew calendar the office drags a job a week later and the board agrees', async ({ page, request }, info) => {
