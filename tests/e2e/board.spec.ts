@@ -149,6 +149,14 @@ async function reloadBoard(page: Page): Promise<void> {
   await Promise.all(answered);
 }
 
+/** Of `dates`, the one where the crew has the fewest jobs, so a calendar day's "more" fold cannot hide one more. */
+function quietestDay(board: SavedBoard, crewId: string, dates: string[]): string {
+  const load = (date: string) => board.assignments.filter((a) => a.crewId === crewId && a.days.includes(date)).length;
+  const quietest = dates.reduce((best, date) => (load(date) < load(best) ? date : best));
+  expect(load(quietest), `a day with room on the calendar among ${dates.join(', ')}`).toBeLessThan(3);
+  return quietest;
+}
+
 function savedBar(page: Page, jobId: string): Locator {
   return page.locator(`.bar[data-job-id="${jobId}"]:not([data-assignment-id^="pending:"]):not([aria-busy="true"])`);
 }
@@ -583,5 +591,135 @@ test.describe('board', () => {
     await expect(card).toContainText('2 days');
     await card.scrollIntoViewIfNeeded();
     await shot(page, 'board-lead-phone');
+  });
+});
+
+/** The first of next month, and the calendar's title for it ("January 2027"). */
+function nextMonth(): { first: string; title: string } {
+  const now = new Date();
+  const first = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth() + 1, 1));
+  return { first: first.toISOString().slice(0, 10), title: first.toLocaleDateString('en-GB', { month: 'long', year: 'numeric', timeZone: 'UTC' }) };
+}
+
+/** Opens one crew's calendar on next month, so every day used lies ahead and sits in the grid's first rows, near the tray. */
+async function openCalendarOnNextMonth(page: Page, crewId: string): Promise<void> {
+  await page.goto(`/calendar?crew=${crewId}`);
+  await expect(page.getByRole('heading', { level: 1, name: 'Crew calendar' })).toBeVisible();
+  await expect(page.locator('.fc-daygrid-day').first()).toBeVisible();
+  await page.locator('.fc-next-button').click();
+  await expect(page.locator('.fc-toolbar-title')).toHaveText(nextMonth().title);
+}
+
+test.describe('crew calendar', () => {
+  test('the office switches a crew\'s calendar to the week and sees the job on its day', async ({ page, request }, info) => {
+    const office = await apiAs(request, 'office');
+    const today = new Date().toISOString().slice(0, 10);
+    const board = await readBoard(office, today, addDays(today, 20));
+    const crew = crewNamed(board, 'Extension crew');
+    const day = quietestDay(board, crew.id, workingDaysOf(board, crew.name).filter((date) => date > today).slice(0, 5));
+    const job = await placedJob(office, `Porch step ${unique(info)}`, 1, crew.id, day);
+
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    await page.goto(`/calendar?crew=${crew.id}`);
+    await expect(page.getByRole('heading', { level: 1, name: 'Crew calendar' })).toBeVisible();
+    await page.getByRole('button', { name: 'Week', exact: true }).click();
+    const week = page.locator('.fc-timeGridWeek-view');
+    await expect(week).toBeVisible();
+    // The week view opens on the current week; the day may fall in the next one.
+    const thisMonday = addDays(today, 1 - isoWeekday(today));
+    for (let shown = thisMonday; day >= addDays(shown, 7); shown = addDays(shown, 7)) {
+      await page.locator('.fc-next-button').click();
+      await expect(week.locator(`.fc-col-header-cell[data-date="${addDays(shown, 7)}"]`)).toBeVisible();
+    }
+
+    const column = week.locator(`.fc-col-header-cell[data-date="${day}"]`);
+    await expect(column).toBeVisible();
+    const event = week.locator('.fc-daygrid-body .fc-event').filter({ hasText: job.reference });
+    await expect(event).toBeVisible();
+    await expect(event).toContainText('Porch step');
+    // In the "Jobs" row, under its own day's column.
+    const [eventBox, columnBox] = [(await event.boundingBox())!, (await column.boundingBox())!];
+    expect(eventBox.x).toBeGreaterThanOrEqual(columnBox.x - 1);
+    expect(eventBox.x + eventBox.width).toBeLessThanOrEqual(columnBox.x + columnBox.width + 1);
+    await shot(page, 'crew-calendar-week');
+  });
+
+  test('on the month calendar the office stretches a job\'s end to a later day and its length is saved in working days', async ({ page, request }, info) => {
+    test.skip(isPhone(info), 'stretching an event is a desktop pointer task; phones change the length from the menu');
+    const office = await apiAs(request, 'office');
+    const { first } = nextMonth();
+    const board = await readBoard(office, first, addDays(first, 20));
+    const stack = crewNamed(board, 'Stack crew');
+    const working = workingDaysOf(board, 'Stack crew');
+    // From a Thursday or Friday, three working days run over a weekend.
+    const starts = working.filter((date, index) => isoWeekday(date) >= 4 && date < addDays(first, 14) && index + 2 < working.length);
+    const startIndex = working.indexOf(quietestDay(board, stack.id, starts));
+    const expected = working.slice(startIndex, startIndex + 3);
+    const [start, end] = [expected[0]!, expected[2]!];
+    const job = await placedJob(office, `Garden pillar ${unique(info)}`, 1, stack.id, start);
+
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    await openCalendarOnNextMonth(page, stack.id);
+    const event = page.locator(`.fc-daygrid-day[data-date="${start}"] .fc-event`).filter({ hasText: job.reference });
+    await expect(event).toBeVisible();
+    await event.hover();
+    const resizer = event.locator('.fc-event-resizer-end');
+    await expect(resizer).toBeVisible();
+    const from = (await resizer.boundingBox())!;
+    const target = page.locator(`.fc-daygrid-day[data-date="${end}"]`);
+    const to = (await target.boundingBox())!;
+    await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2);
+    await page.mouse.down();
+    await page.mouse.move(from.x + from.width / 2 + 20, from.y + from.height / 2, { steps: 4 });
+    await page.mouse.move(to.x + to.width / 2, to.y + to.height / 2, { steps: 12 });
+    await page.mouse.up();
+
+    const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
+    await expect.poll(async () => {
+      if (await bookAnyway.isVisible()) await bookAnyway.click();
+      return (await readBoard(office, first, addDays(first, 20))).assignments.find((a) => a.jobId === job.id)?.days;
+    }, { timeout: 15_000 }).toEqual(expected);
+    // The job's last run now ends on the day it was stretched to.
+    await expect.poll(async () => {
+      const cell = (await target.boundingBox())!;
+      const runs = await page.locator('.fc-daygrid-event').filter({ hasText: job.reference }).evaluateAll((els) => els.map((el) => el.getBoundingClientRect().right));
+      return runs.some((right) => Math.abs(right - (cell.x + cell.width)) < 6);
+    }).toBe(true);
+    await shot(page, 'crew-calendar-resized');
+  });
+
+  test('the office drags a job from the calendar\'s tray onto a day and it is booked on that crew from that day', async ({ page, request }, info) => {
+    test.skip(isPhone(info), 'dragging from the tray is a desktop pointer task; phones use its Place button');
+    const office = await apiAs(request, 'office');
+    const { first } = nextMonth();
+    const board = await readBoard(office, first, addDays(first, 20));
+    const stack = crewNamed(board, 'Stack crew');
+    const day = quietestDay(board, stack.id, workingDaysOf(board, 'Stack crew').slice(0, 5));
+    // Urgent jobs head the tray, so the card sits near the top of the page beside the month's first rows.
+    const job = await bookedJob(office, `Boundary piers ${unique(info)}`, 2, 'urgent');
+
+    await signIn(page, DEMO_USERS.office.email, DEMO_USERS.office.password);
+    await openCalendarOnNextMonth(page, stack.id);
+    const card = page.locator(`.cal-tray-item[data-job-id="${job.id}"]`);
+    await expect(card).toBeVisible();
+    await card.scrollIntoViewIfNeeded();
+    const from = (await card.locator('.text').boundingBox())!;
+    const target = page.locator(`.fc-daygrid-day[data-date="${day}"]`);
+    await target.scrollIntoViewIfNeeded();
+    const to = (await target.boundingBox())!;
+    await page.mouse.move(from.x + 20, from.y + from.height / 2);
+    await page.mouse.down();
+    await page.mouse.move(from.x - 20, from.y + from.height / 2, { steps: 4 });
+    await page.mouse.move(to.x + to.width / 2, to.y + to.height / 2, { steps: 15 });
+    await page.mouse.up();
+
+    const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
+    await expect.poll(async () => {
+      if (await bookAnyway.isVisible()) await bookAnyway.click();
+      return (await readBoard(office, first, addDays(first, 20))).assignments.find((a) => a.jobId === job.id);
+    }, { timeout: 15_000 }).toMatchObject({ crewId: stack.id, startDate: day, workingDays: 2 });
+    await expect(card).toHaveCount(0);
+    await expect(page.locator(`.fc-daygrid-day[data-date="${day}"] .fc-event`).filter({ hasText: job.reference })).toBeVisible();
+    await shot(page, 'crew-calendar-from-tray');
   });
 });
