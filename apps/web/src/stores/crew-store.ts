@@ -1,5 +1,6 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef, watch } from 'vue';
+import { format, parseISO } from 'date-fns';
 import type { CrewDayDto, CrewDaysDto, HoldReason, PhotoDto, ScheduleChangedMessage, SiteNoteDto } from '@hodboard/shared';
 import { getCrewDays, raiseStandDown, takePrefetchedCrewDays } from '@/api/crew-days';
 import { isApiError } from '@/api/http';
@@ -28,10 +29,10 @@ function sendItem(item: OutboxItem, onProgress: (fraction: number) => void): Pro
   }
 }
 
-const shortDay = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' });
-
+// date-fns rather than an Intl formatter made when this module loads, which would load the locale data on the way
+// to the crew home's first screen.
 function short(date: string): string {
-  return shortDay.format(new Date(`${date}T12:00:00Z`));
+  return format(parseISO(date), 'EEE d MMM');
 }
 
 export const useCrewStore = defineStore('crew', () => {
