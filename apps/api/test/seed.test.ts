@@ -65,6 +65,14 @@ describe('demo firm seed', () => {
     expect(new Set(board.conflicts.map((conflict) => conflict.kind))).toEqual(new Set(['double-booked', 'member-on-leave', 'before-earliest-start']));
   });
 
+  it("writes its history in one transaction with no two events at the same moment, so a job's history reads in order", async () => {
+    const dataSource = await testDataSource();
+    await seedDemoFirm(dataSource, TODAY);
+    const [counts] = (await dataSource.query('SELECT COUNT(*)::int AS events, COUNT(DISTINCT at)::int AS moments FROM audit_event')) as Array<{ events: number; moments: number }>;
+    expect(counts!.events).toBeGreaterThan(40);
+    expect(counts!.moments).toBe(counts!.events);
+  });
+
   it('books a job over the next bank holiday when none falls in the six weeks', async () => {
     const dataSource = await testDataSource();
     // Six weeks from Monday 7 June 2027 hold no bank holiday; the next is the summer one.

@@ -27,6 +27,7 @@ export class AuditEvent {
   @Column({ type: 'jsonb', nullable: true })
   after: Record<string, unknown> | null;
 
-  @CreateDateColumn({ name: 'at', type: 'timestamptz' })
+  // The time of writing, so events written in one transaction keep their order.
+  @CreateDateColumn({ name: 'at', type: 'timestamptz', default: () => 'clock_timestamp()' })
   at: Date;
 }
