@@ -130,11 +130,19 @@ const sameRowAs = (box: Box, from: Point): Point => ({ x: box.x + box.width / 2,
  * stays open while the question is on its way, so "dialog still visible" cannot mean "no question coming".
  */
 async function closesOnceConfirmed(page: Page, dialog: Locator): Promise<void> {
-  const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
   await expect(async () => {
-    if (await bookAnyway.isVisible()) await bookAnyway.click();
+    await acceptDoubleBookingIfShown(page);
     await expect(dialog).toBeHidden({ timeout: 1_000 });
   }).toPass({ timeout: 15_000 });
+}
+
+/**
+ * Clicks "Book anyway" if the double-booking question is showing. The click gives up after a second: a question
+ * already closing leaves the page mid-click, and an unbounded click would then wait out the whole test inside a poll.
+ */
+async function acceptDoubleBookingIfShown(page: Page): Promise<void> {
+  const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
+  if (await bookAnyway.isVisible()) await bookAnyway.click({ timeout: 1_000 }).catch(() => undefined);
 }
 
 /**
@@ -555,9 +563,8 @@ test.describe('board', () => {
     // The tray and the leave arrive after the grid and move its rows; measure once they have.
     await page.waitForLoadState('networkidle');
     await dragWithMouse(page, event, (box) => ({ x: box.x + 8, y: box.y + box.height / 2 }), page.locator(`.fc-daygrid-day[data-date="${target}"]`), middleOf);
-    const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
     await expect.poll(async () => {
-      if (await bookAnyway.isVisible()) await bookAnyway.click();
+      await acceptDoubleBookingIfShown(page);
       const after = await office.get<{ assignments: Array<{ jobId: string; startDate: string }> }>(`/api/board?from=${today}&to=${ahead}`);
       return after.assignments.find((a) => a.jobId === job.id)?.startDate;
     }, { timeout: 15_000 }).toBe(target);
@@ -675,9 +682,8 @@ test.describe('crew calendar', () => {
     await page.mouse.move(to.x + to.width / 2, to.y + to.height / 2, { steps: 12 });
     await page.mouse.up();
 
-    const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
     await expect.poll(async () => {
-      if (await bookAnyway.isVisible()) await bookAnyway.click();
+      await acceptDoubleBookingIfShown(page);
       return (await readBoard(office, first, addDays(first, 20))).assignments.find((a) => a.jobId === job.id)?.days;
     }, { timeout: 15_000 }).toEqual(expected);
     // The job's last run now ends on the day it was stretched to.
@@ -706,9 +712,8 @@ test.describe('crew calendar', () => {
     await page.waitForLoadState('networkidle');
     await dragWithMouse(page, card.locator('.text'), (box) => ({ x: box.x + 20, y: box.y + box.height / 2 }), page.locator(`.fc-daygrid-day[data-date="${day}"]`), middleOf);
 
-    const bookAnyway = page.getByRole('button', { name: 'Book anyway' });
     await expect.poll(async () => {
-      if (await bookAnyway.isVisible()) await bookAnyway.click();
+      await acceptDoubleBookingIfShown(page);
       return (await readBoard(office, first, addDays(first, 20))).assignments.find((a) => a.jobId === job.id);
     }, { timeout: 15_000 }).toMatchObject({ crewId: stack.id, startDate: day, workingDays: 2 });
     await expect(card).toHaveCount(0);

@@ -79,7 +79,8 @@ export function addDays(date: string, days: number): string {
 export async function fillDate(field: Locator, iso: string): Promise<void> {
   const [y, m, d] = iso.split('-');
   await field.fill(`${d}/${m}/${y}`);
-  await field.press('Escape');
+  // Tab, not Escape: the calendar may already have closed itself (a scroll closes it), and Escape would then close the form's dialog.
+  await field.press('Tab');
   await expect(field.page().getByRole('dialog', { name: 'Choose Date' })).toBeHidden();
 }
 
