@@ -180,7 +180,7 @@ export function resourceRouters(services: AppServices): Array<{ path: string; ro
     { path: '/api/jobs', router: jobsRouter(services.jobs) },
     { path: '/api/firm', router: firmRouter(services.firms) },
     { path: '/api/board', router: boardRouter(services.schedule, services.boards) },
-    { path: '/api/assignments', router: assignmentsRouter(services.schedule) },
+    { path: '/api/assignments', router: assignmentsRouter(services.schedule, services.boards) },
     { path: '/api/time-off', router: timeOffRouter(services.timeOff) },
     { path: '/api/suppliers', router: suppliersRouter(services.access) },
     { path: '/api/access-bookings', router: accessBookingsRouter(services.access) },

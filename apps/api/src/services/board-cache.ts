@@ -2,18 +2,31 @@ import { randomUUID } from 'node:crypto';
 import { promisify } from 'node:util';
 import { gzip } from 'node:zlib';
 import type { RequestHandler } from 'express';
-import { can, type BoardQuery } from '@hodboard/shared';
+import type { BoardDto, BoardQuery, ScheduleChangeDto } from '@hodboard/shared';
 import type { Clock } from '../lib/clock.js';
-import type { EventBus } from '../lib/event-bus.js';
+import type { DomainEvent, EventBus } from '../lib/event-bus.js';
 import type { Actor } from './actor.js';
+import { patchBoard, type BoardView } from './board-patch.js';
 import type { ScheduleService } from './schedule-service.js';
 
 const gzipAsync = promisify(gzip);
+
+/** Schedule changes a cached board can take in place; any other published change makes the firm's boards be read afresh. */
+const PATCHABLE = new Set(['assignment:created', 'assignment:moved', 'assignment:removed']);
 
 export interface CachedBoard {
   etag: string;
   /** The board's JSON, gzipped once for every reader of this version. */
   gzip: Buffer;
+}
+
+interface Entry {
+  firmId: string;
+  view: BoardView;
+  /** Set once the board is read; only a finished read is patched, one still running is dropped instead. */
+  board?: BoardDto;
+  /** The serialised board, made when first asked for. */
+  answer?: Promise<CachedBoard>;
 }
 
 /**
@@ -26,6 +39,11 @@ export interface CachedBoard {
  * reading, so a write that commits while it runs leaves it under a version nobody asks for. The key also holds the
  * minute of the clock, because "today" and a forecast's staleness change the board with no write at all.
  *
+ * A schedule change (a card placed, moved or sent back) is the exception: its request says so
+ * (`keepsBoardsOnWrite`), and the change it publishes is applied to each finished board of the firm (patchBoard), so
+ * the next read skips the queries and the rules. Whatever else the request changed publishes its own change, which
+ * moves the version on as usual.
+ *
  * Single process only: the versions live here, as the event bus does. A second API process, or a write made
  * straight into the database, is not seen until the minute turns.
  */
@@ -34,7 +52,7 @@ export class BoardCache {
   private readonly versions = new Map<string, number>();
   private everyFirm = 0;
   private serial = 0;
-  private readonly entries = new Map<string, Promise<CachedBoard>>();
+  private readonly entries = new Map<string, Entry>();
 
   constructor(
     private readonly schedule: ScheduleService,
@@ -42,7 +60,7 @@ export class BoardCache {
     private readonly clock: Clock,
     private readonly maxEntries = 24,
   ) {
-    events.subscribe((event) => this.invalidate(event.firmId));
+    events.subscribe((event) => (PATCHABLE.has(event.type) ? this.patch(event) : this.invalidate(event.firmId)));
   }
 
   /** Forgets the boards of one firm, or of every firm. */
@@ -53,16 +71,17 @@ export class BoardCache {
       return;
     }
     this.versions.set(firmId, (this.versions.get(firmId) ?? 0) + 1);
-    for (const key of this.entries.keys()) if (key.startsWith(`${firmId}|`)) this.entries.delete(key);
+    for (const [key, entry] of this.entries) if (entry.firmId === firmId) this.entries.delete(key);
   }
 
-  /** Moves the firm's version on once a write request has been answered. */
+  /** Moves the firm's version on once a write request has been answered, unless the route keeps the boards itself. */
   readonly invalidateOnWrite: RequestHandler = (req, res, next) => {
     if (req.method !== 'GET' && req.method !== 'HEAD' && req.method !== 'OPTIONS') {
       let done = false;
       const bump = () => {
         if (done) return;
         done = true;
+        if (res.locals.keepsBoards === true) return;
         this.invalidate((res.locals.actor as Actor | undefined)?.firmId);
       };
       res.once('finish', bump);
@@ -71,29 +90,68 @@ export class BoardCache {
     next();
   };
 
+  /**
+   * For a route whose every change to the board is published as a schedule change or as a change that moves the
+   * version on; the cached boards then follow the published changes instead of being dropped after the request.
+   */
+  readonly keepsBoardsOnWrite: RequestHandler = (_req, res, next) => {
+    res.locals.keepsBoards = true;
+    next();
+  };
+
   async read(actor: Actor, query: BoardQuery): Promise<CachedBoard> {
-    const sees = can(actor.role, 'jobs:manage') ? 'office' : `crews:${[...actor.crewIds].sort().join(',')}`;
+    const view = this.schedule.boardView(actor, query);
     const minute = Math.floor(this.clock().getTime() / 60_000);
     const version = `${this.everyFirm}.${this.versions.get(actor.firmId) ?? 0}`;
+    const sees = view.hasTray ? 'office' : `crews:${view.crewIds?.join(',')}`;
     const key = [actor.firmId, version, minute, sees, query.from, query.to, query.crewId ?? ''].join('|');
     const known = this.entries.get(key);
     if (known) {
       // Most recently used last, so the oldest is the first to go.
       this.entries.delete(key);
       this.entries.set(key, known);
-      return known;
+      return (known.answer ??= this.answerFor(key, known.board!));
     }
-    const built = this.build(actor, query);
-    this.entries.set(key, built);
-    built.catch(() => this.entries.delete(key));
+    const entry: Entry = { firmId: actor.firmId, view };
+    entry.answer = this.schedule.board(actor, query).then((board) => {
+      if (this.entries.get(key) === entry) entry.board = board;
+      return this.serialise(board);
+    });
+    entry.answer.catch(() => this.entries.delete(key));
+    this.entries.set(key, entry);
     while (this.entries.size > this.maxEntries) this.entries.delete(this.entries.keys().next().value!);
-    return built;
+    return entry.answer;
   }
 
   /** The board read afresh, skipping this cache: what a reader gets after a write. */
   async build(actor: Actor, query: BoardQuery): Promise<CachedBoard> {
-    const board = await this.schedule.board(actor, query);
+    return this.serialise(await this.schedule.board(actor, query));
+  }
+
+  private async serialise(board: BoardDto): Promise<CachedBoard> {
     this.serial += 1;
-    return { etag: `"${this.bootId}-${this.serial}"`, gzip: await gzipAsync(JSON.stringify(board), { level: 1 }) };
+    const etag = `"${this.bootId}-${this.serial}"`;
+    // One output buffer for the whole board: the default 16 KB chunks cost a thread-pool round trip each.
+    return { etag, gzip: await gzipAsync(JSON.stringify(board), { level: 1, chunkSize: 256 * 1024 }) };
+  }
+
+  private answerFor(key: string, board: BoardDto): Promise<CachedBoard> {
+    const answer = this.serialise(board);
+    answer.catch(() => this.entries.delete(key));
+    return answer;
+  }
+
+  /**
+   * Applies a published schedule change to each of the firm's finished boards, to be serialised when next read. A
+   * board still being read, or one the change cannot be applied to, is dropped and read afresh.
+   */
+  private patch(event: DomainEvent): void {
+    const { eventId, ...change } = event.payload as ScheduleChangeDto & { eventId: number };
+    for (const [key, entry] of this.entries) {
+      if (entry.firmId !== event.firmId) continue;
+      const board = entry.board && patchBoard(entry.board, change, eventId, entry.view);
+      if (board) this.entries.set(key, { firmId: entry.firmId, view: entry.view, board });
+      else this.entries.delete(key);
+    }
   }
 }

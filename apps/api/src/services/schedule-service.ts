@@ -27,6 +27,7 @@ import type { EventBus } from '../lib/event-bus.js';
 import type { AccessService, AfterCommit } from './access-service.js';
 import type { WeatherService } from './weather/weather-service.js';
 import { requirePermission, type Actor } from './actor.js';
+import { conflictShows, SCHEDULABLE, trayOrder, type BoardView } from './board-patch.js';
 import { recordAudit, recordAudits } from './audit-service.js';
 import { datesBetween, loadCalendars, type FirmCalendars } from './calendar-service.js';
 import { FirmScope } from './firm-scope.js';
@@ -35,7 +36,6 @@ import { formatAddress } from './site-service.js';
 type CreateValues = z.output<typeof assignmentCreateSchema>;
 type UpdateValues = z.output<typeof assignmentUpdateSchema>;
 
-const SCHEDULABLE: ReadonlySet<Job['status']> = new Set(['booked', 'stood-down']);
 
 export class ScheduleService {
   constructor(
@@ -50,10 +50,9 @@ export class ScheduleService {
     requirePermission(actor, 'jobs:read');
     const manager = this.dataSource.manager;
     const scope = new FirmScope(manager, actor.firmId);
-    const isOffice = can(actor.role, 'jobs:manage');
-    // Crew roles see only their own crews, whatever crew id they ask for.
-    const ownCrews = isOffice ? null : actor.crewIds;
-    const crewFilter = query.crewId ? (ownCrews && !ownCrews.includes(query.crewId) ? [] : [query.crewId]) : ownCrews;
+    const view = this.boardView(actor, query);
+    const isOffice = view.hasTray;
+    const crewFilter = view.crewIds;
     // The board is the hottest read: plain queries (no entity hydration), run side by side on the pool.
     const [crews, calendars, placed, trayRows, lastEvent, holdDays] = await Promise.all([
       scope.find(Crew, { where: crewFilter ? { id: In(crewFilter) } : {}, order: { name: 'ASC' } }),
@@ -95,14 +94,22 @@ export class ScheduleService {
       })),
       assignments,
       jobs: Object.fromEntries(jobs),
-      trayJobIds: trayJobs
-        .sort((a, b) => priorityRank(b.priority) - priorityRank(a.priority) || a.reference.localeCompare(b.reference))
-        .map((job) => job.id),
-      ...assessed,
+      trayJobIds: trayJobs.sort(trayOrder).map((job) => job.id),
+      conflicts: assessed.conflicts.filter((conflict) => conflictShows(view, conflict)),
+      weather: assessed.weather,
       accessBands,
       holdDays,
       lastEventId: Number(lastEvent?.max ?? 0),
     };
+  }
+
+  /** Which board this reader gets for this query: the office sees every crew and the tray, crew roles only their own crews. */
+  boardView(actor: Actor, query: BoardQuery): BoardView {
+    const isOffice = can(actor.role, 'jobs:manage');
+    // Crew roles see only their own crews, whatever crew id they ask for.
+    const ownCrews = isOffice ? null : [...actor.crewIds].sort();
+    const crewIds = query.crewId ? (ownCrews && !ownCrews.includes(query.crewId) ? [] : [query.crewId]) : ownCrews;
+    return { from: query.from, to: query.to, crewIds, hasTray: isOffice };
   }
 
   async place(actor: Actor, input: CreateValues): Promise<ScheduleChangeDto> {
@@ -632,10 +639,6 @@ interface BoardJobRow {
 
 function toPlaced(a: PlacedAssignment, reference: string, earliestStart: string | null, targetFinish: string | null): PlacedJob {
   return { assignmentId: a.id, jobId: a.jobId, crewId: a.crewId, reference, days: a.days, earliestStart, targetFinish };
-}
-
-function priorityRank(priority: Job['priority']): number {
-  return { low: 0, normal: 1, high: 2, urgent: 3 }[priority];
 }
 
 export function toAssignmentDto(a: Assignment, names: Map<string, string>): AssignmentDto {

@@ -1,0 +1,100 @@
+import type { BoardAssignmentDto, BoardDto, BoardJobDto, ConflictDto, ScheduleChangeDto } from '@hodboard/shared';
+
+/** Which board a cached copy is: its range, whose crews it shows (null: every crew) and whether it carries the tray. */
+export interface BoardView {
+  from: string;
+  to: string;
+  crewIds: string[] | null;
+  hasTray: boolean;
+}
+
+/** Job statuses that may be put on a crew, and that the tray holds while the job is on none. */
+export const SCHEDULABLE: ReadonlySet<BoardJobDto['status']> = new Set(['booked', 'stood-down']);
+
+/**
+ * The board as a full rebuild would read it after one schedule change, made from the board before it and the change
+ * the schedule service published. Null when the change cannot be applied from what it carries: a job coming onto this
+ * board brings stood-down days the change does not describe, so the board must be read afresh.
+ *
+ * Conflicts are replaced for the change's affected assignments only; the schedule service recomputes every card on
+ * the changed crews over the changed days, which are the only cards whose conflicts a move can alter.
+ */
+export function patchBoard(board: BoardDto, change: ScheduleChangeDto, eventId: number, view: BoardView): BoardDto | null {
+  const job = change.job;
+  const changedId = change.assignment?.id ?? change.removedAssignmentId;
+  const before = board.assignments.find((a) => a.jobId === job.id || a.id === changedId);
+  const after = change.assignment && shows(view, change.assignment) ? toCard(change.assignment) : null;
+  if (after && !before) return null;
+
+  const assignments = board.assignments.filter((a) => a !== before);
+  if (after) assignments.splice(insertionIndex(assignments, after.startDate), 0, after);
+
+  const inTray = view.hasTray && change.assignment === null && SCHEDULABLE.has(job.status);
+  const trayJobIds = board.trayJobIds.filter((id) => id !== job.id);
+  if (inTray) trayJobIds.push(job.id);
+  const jobs = { ...board.jobs };
+  if (after || inTray) jobs[job.id] = job;
+  else delete jobs[job.id];
+  trayJobIds.sort((a, b) => trayOrder(jobs[a]!, jobs[b]!));
+
+  const shown = new Set(assignments.map((a) => a.id));
+  const affected = new Set(change.affectedAssignmentIds);
+  if (before) affected.add(before.id);
+  const bookings = new Set(change.accessBands.map((band) => band.bookingId));
+
+  return {
+    ...board,
+    assignments,
+    jobs,
+    trayJobIds,
+    conflicts: [
+      ...board.conflicts.filter((conflict) => !affected.has(conflict.assignmentId)),
+      ...change.conflicts.filter((conflict) => shown.has(conflict.assignmentId) && conflictShows(view, conflict)),
+    ],
+    accessBands: [
+      ...board.accessBands.filter((band) => !bookings.has(band.bookingId) && !band.jobIds.includes(job.id)),
+      ...change.accessBands.filter((band) => band.jobIds.some((id) => id in jobs)),
+    ],
+    weather: [...board.weather.filter((day) => day.jobId !== job.id), ...(after ? change.weather.filter((day) => day.assignmentId === after.id) : [])],
+    holdDays: after ? board.holdDays : board.holdDays.filter((day) => day.jobId !== job.id),
+    lastEventId: Math.max(board.lastEventId, eventId),
+  };
+}
+
+/**
+ * A board lists the conflicts on its own days and those of no one day. A clash beyond its last day is left to the
+ * board that shows that day: this one does not hold the cards on it, so it could not list them all.
+ */
+export function conflictShows(view: BoardView, conflict: ConflictDto): boolean {
+  return conflict.date === null || (conflict.date >= view.from && conflict.date <= view.to);
+}
+
+function shows(view: BoardView, assignment: { crewId: string; days: string[]; startDate: string }): boolean {
+  if (view.crewIds && !view.crewIds.includes(assignment.crewId)) return false;
+  const last = assignment.days[assignment.days.length - 1] ?? assignment.startDate;
+  return assignment.startDate <= view.to && last >= view.from;
+}
+
+function toCard(assignment: NonNullable<ScheduleChangeDto['assignment']>): BoardAssignmentDto {
+  const { id, jobId, crewId, startDate, workingDays, days, version } = assignment;
+  return { id, jobId, crewId, startDate, workingDays, days, version };
+}
+
+/** After the cards starting on or before the day, as the board's query orders them by first day. */
+function insertionIndex(assignments: BoardAssignmentDto[], startDate: string): number {
+  let low = 0;
+  let high = assignments.length;
+  while (low < high) {
+    const mid = (low + high) >> 1;
+    if (assignments[mid]!.startDate <= startDate) low = mid + 1;
+    else high = mid;
+  }
+  return low;
+}
+
+const PRIORITY_RANK: Record<BoardJobDto['priority'], number> = { low: 0, normal: 1, high: 2, urgent: 3 };
+
+/** The tray's order: most urgent first, then by reference. */
+export function trayOrder(a: BoardJobDto, b: BoardJobDto): number {
+  return PRIORITY_RANK[b.priority] - PRIORITY_RANK[a.priority] || a.reference.localeCompare(b.reference);
+}
