@@ -1,4 +1,4 @@
-import type { BoardAssignmentDto, BoardDto, BoardJobDto, ConflictDto, ScheduleChangeDto } from '@hodboard/shared';
+import { compareTrayJobs, TRAY_STATUSES, type BoardAssignmentDto, type BoardDto, type ConflictDto, type ScheduleChangeDto } from '@hodboard/shared';
 
 /** Which board a cached copy is: its range, whose crews it shows (null: every crew) and whether it carries the tray. */
 export interface BoardView {
@@ -8,8 +8,6 @@ export interface BoardView {
   hasTray: boolean;
 }
 
-/** Job statuses that may be put on a crew, and that the tray holds while the job is on none. */
-export const SCHEDULABLE: ReadonlySet<BoardJobDto['status']> = new Set(['booked', 'stood-down']);
 
 /**
  * The board as a full rebuild would read it after one schedule change, made from the board before it and the change
@@ -29,13 +27,13 @@ export function patchBoard(board: BoardDto, change: ScheduleChangeDto, eventId: 
   const assignments = board.assignments.filter((a) => a !== before);
   if (after) assignments.splice(insertionIndex(assignments, after.startDate), 0, after);
 
-  const inTray = view.hasTray && change.assignment === null && SCHEDULABLE.has(job.status);
+  const inTray = view.hasTray && change.assignment === null && TRAY_STATUSES.has(job.status);
   const trayJobIds = board.trayJobIds.filter((id) => id !== job.id);
   if (inTray) trayJobIds.push(job.id);
   const jobs = { ...board.jobs };
   if (after || inTray) jobs[job.id] = job;
   else delete jobs[job.id];
-  trayJobIds.sort((a, b) => trayOrder(jobs[a]!, jobs[b]!));
+  trayJobIds.sort((a, b) => compareTrayJobs(jobs[a]!, jobs[b]!));
 
   const shown = new Set(assignments.map((a) => a.id));
   const affected = new Set(change.affectedAssignmentIds);
@@ -92,9 +90,3 @@ function insertionIndex(assignments: BoardAssignmentDto[], startDate: string): n
   return low;
 }
 
-const PRIORITY_RANK: Record<BoardJobDto['priority'], number> = { low: 0, normal: 1, high: 2, urgent: 3 };
-
-/** The tray's order: most urgent first, then by reference. */
-export function trayOrder(a: BoardJobDto, b: BoardJobDto): number {
-  return PRIORITY_RANK[b.priority] - PRIORITY_RANK[a.priority] || a.reference.localeCompare(b.reference);
-}

@@ -2,10 +2,12 @@ import { In, type DataSource, type EntityManager } from 'typeorm';
 import { queriesOf } from '../lib/queries-of.js';
 import {
   can,
+  compareTrayJobs,
   doubleBookedDays,
   SCHEDULE_CHANGES_PAGE,
   scheduleConflicts,
   spanFor,
+  TRAY_STATUSES,
   type AssignmentDto,
   type BoardAssignmentDto,
   type BoardDto,
@@ -27,7 +29,7 @@ import type { EventBus } from '../lib/event-bus.js';
 import type { AccessService, AfterCommit } from './access-service.js';
 import type { WeatherService } from './weather/weather-service.js';
 import { requirePermission, type Actor } from './actor.js';
-import { conflictShows, SCHEDULABLE, trayOrder, type BoardView } from './board-patch.js';
+import { conflictShows, type BoardView } from './board-patch.js';
 import { recordAudit, recordAudits } from './audit-service.js';
 import { datesBetween, loadCalendars, type FirmCalendars } from './calendar-service.js';
 import { FirmScope } from './firm-scope.js';
@@ -94,7 +96,7 @@ export class ScheduleService {
       })),
       assignments,
       jobs: Object.fromEntries(jobs),
-      trayJobIds: trayJobs.sort(trayOrder).map((job) => job.id),
+      trayJobIds: trayJobs.sort(compareTrayJobs).map((job) => job.id),
       conflicts: assessed.conflicts.filter((conflict) => conflictShows(view, conflict)),
       weather: assessed.weather,
       accessBands,
@@ -120,7 +122,7 @@ export class ScheduleService {
       if (await manager.existsBy(Assignment, { jobId: job.id })) {
         throw errors.conflict(`${job.reference} is already on the board; move it instead.`);
       }
-      if (!SCHEDULABLE.has(job.status)) {
+      if (!TRAY_STATUSES.has(job.status)) {
         throw errors.illegalTransition(`${job.reference} is ${job.status.replace('-', ' ')}; only booked jobs can be scheduled.`);
       }
       const workingDays = input.workingDays ?? job.estimatedWorkingDays;
@@ -539,7 +541,7 @@ async function trayRowsOf(manager: EntityManager, firmId: string): Promise<Board
     `SELECT ${BOARD_JOB_COLUMNS}
        FROM job j JOIN client c ON c.id = j.client_id JOIN site s ON s.id = j.site_id
       WHERE j.firm_id = $1 AND j.status = ANY($2::text[]) AND NOT EXISTS (SELECT 1 FROM assignment a WHERE a.job_id = j.id)`,
-    [firmId, [...SCHEDULABLE]],
+    [firmId, [...TRAY_STATUSES]],
   )) as Array<Encoded<BoardJobRow>>;
   return rows.map((row) => decodeRow(row));
 }

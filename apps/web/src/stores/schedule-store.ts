@@ -10,9 +10,10 @@ import {
   type BoardJobDto,
   type ConflictDto,
   type ConflictKind,
-  type JobPriority,
   type ScheduleChangeDto,
+  compareTrayJobs,
   SCHEDULE_CHANGES_PAGE,
+  TRAY_STATUSES,
 } from '@hodboard/shared';
 import * as boardApi from '@/api/board';
 import { isApiError } from '@/api/http';
@@ -48,13 +49,6 @@ export interface MoveTarget {
 /** Placements waiting for the server carry this id until the real one comes back. */
 export const pendingAssignmentId = (jobId: string) => `pending:${jobId}`;
 
-const trayStatuses = new Set<BoardJobDto['status']>(['booked', 'stood-down']);
-const priorityRank: Record<JobPriority, number> = { low: 0, normal: 1, high: 2, urgent: 3 };
-
-/** Mirrors the API's tray order (priority first, then reference) so live inserts land where a reload would put them. */
-export function compareTrayJobs(a: BoardJobDto, b: BoardJobDto): number {
-  return priorityRank[b.priority] - priorityRank[a.priority] || a.reference.localeCompare(b.reference);
-}
 
 export function addDaysIso(date: string, days: number): string {
   const d = new Date(`${date}T00:00:00Z`);
@@ -228,7 +222,7 @@ export const useScheduleStore = defineStore('schedule', () => {
     }
     if (removedAssignmentId) {
       delete assignments.value[removedAssignmentId];
-      if (trayStatuses.has(job.status)) addToTray(job.id);
+      if (TRAY_STATUSES.has(job.status)) addToTray(job.id);
     }
     const affected = new Set(change.affectedAssignmentIds);
     conflicts.value = [
