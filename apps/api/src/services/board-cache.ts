@@ -1,15 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { promisify } from 'node:util';
-import { gzip } from 'node:zlib';
 import type { RequestHandler } from 'express';
 import type { BoardDto, BoardQuery, ScheduleChangeDto } from '@hodboard/shared';
 import type { Clock } from '../lib/clock.js';
 import type { DomainEvent, EventBus } from '../lib/event-bus.js';
+import { SectionedGzip } from '../lib/sectioned-gzip.js';
 import type { Actor } from './actor.js';
 import { patchBoard, type BoardView } from './board-patch.js';
 import type { ScheduleService } from './schedule-service.js';
-
-const gzipAsync = promisify(gzip);
 
 /** Schedule changes a cached board can take in place; any other published change makes the firm's boards be read afresh. */
 const PATCHABLE = new Set(['assignment:created', 'assignment:moved', 'assignment:removed']);
@@ -27,6 +24,8 @@ interface Entry {
   board?: BoardDto;
   /** The serialised board, made when first asked for. */
   answer?: Promise<CachedBoard>;
+  /** Keeps each field's compressed bytes, for the patched boards that follow this one. */
+  packer: SectionedGzip;
 }
 
 /**
@@ -110,12 +109,12 @@ export class BoardCache {
       // Most recently used last, so the oldest is the first to go.
       this.entries.delete(key);
       this.entries.set(key, known);
-      return (known.answer ??= this.answerFor(key, known.board!));
+      return (known.answer ??= this.answerFor(key, known));
     }
-    const entry: Entry = { firmId: actor.firmId, view };
+    const entry: Entry = { firmId: actor.firmId, view, packer: new SectionedGzip() };
     entry.answer = this.schedule.board(actor, query).then((board) => {
       if (this.entries.get(key) === entry) entry.board = board;
-      return this.serialise(board);
+      return this.serialise(board, entry.packer);
     });
     entry.answer.catch(() => this.entries.delete(key));
     this.entries.set(key, entry);
@@ -125,20 +124,21 @@ export class BoardCache {
 
   /** The board read afresh, skipping this cache: what a reader gets after a write. */
   async build(actor: Actor, query: BoardQuery): Promise<CachedBoard> {
-    return this.serialise(await this.schedule.board(actor, query));
+    return this.serialise(await this.schedule.board(actor, query), new SectionedGzip());
   }
 
-  private async serialise(board: BoardDto): Promise<CachedBoard> {
+  private serialise(board: BoardDto, packer: SectionedGzip): CachedBoard {
     this.serial += 1;
-    const etag = `"${this.bootId}-${this.serial}"`;
-    // One output buffer for the whole board: the default 16 KB chunks cost a thread-pool round trip each.
-    return { etag, gzip: await gzipAsync(JSON.stringify(board), { level: 1, chunkSize: 256 * 1024 }) };
+    return { etag: `"${this.bootId}-${this.serial}"`, gzip: packer.gzip(board as unknown as Record<string, unknown>) };
   }
 
-  private answerFor(key: string, board: BoardDto): Promise<CachedBoard> {
-    const answer = this.serialise(board);
-    answer.catch(() => this.entries.delete(key));
-    return answer;
+  private answerFor(key: string, entry: Entry): Promise<CachedBoard> {
+    try {
+      return Promise.resolve(this.serialise(entry.board!, entry.packer));
+    } catch (error) {
+      this.entries.delete(key);
+      return Promise.reject(error);
+    }
   }
 
   /**
@@ -150,7 +150,7 @@ export class BoardCache {
     for (const [key, entry] of this.entries) {
       if (entry.firmId !== event.firmId) continue;
       const board = entry.board && patchBoard(entry.board, change, eventId, entry.view);
-      if (board) this.entries.set(key, { firmId: entry.firmId, view: entry.view, board });
+      if (board) this.entries.set(key, { firmId: entry.firmId, view: entry.view, board, packer: entry.packer });
       else this.entries.delete(key);
     }
   }

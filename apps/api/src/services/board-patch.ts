@@ -28,35 +28,51 @@ export function patchBoard(board: BoardDto, change: ScheduleChangeDto, eventId: 
   if (after) assignments.splice(insertionIndex(assignments, after.startDate), 0, after);
 
   const inTray = view.hasTray && change.assignment === null && TRAY_STATUSES.has(job.status);
-  const trayJobIds = board.trayJobIds.filter((id) => id !== job.id);
-  if (inTray) trayJobIds.push(job.id);
-  const jobs = { ...board.jobs };
-  if (after || inTray) jobs[job.id] = job;
-  else delete jobs[job.id];
-  trayJobIds.sort((a, b) => compareTrayJobs(jobs[a]!, jobs[b]!));
+  const keepsJob = Boolean(after) || inTray;
+  const heldJob = board.jobs[job.id];
+  let jobs = board.jobs;
+  if (keepsJob && (!heldJob || JSON.stringify(heldJob) !== JSON.stringify(job))) jobs = { ...board.jobs, [job.id]: job };
+  if (!keepsJob && heldJob) {
+    jobs = { ...board.jobs };
+    delete jobs[job.id];
+  }
+  let trayJobIds = board.trayJobIds;
+  if (inTray || trayJobIds.includes(job.id)) {
+    trayJobIds = [...trayJobIds.filter((id) => id !== job.id), ...(inTray ? [job.id] : [])];
+    trayJobIds.sort((a, b) => compareTrayJobs(jobs[a]!, jobs[b]!));
+  }
 
   const shown = new Set(assignments.map((a) => a.id));
   const affected = new Set(change.affectedAssignmentIds);
   if (before) affected.add(before.id);
   const bookings = new Set(change.accessBands.map((band) => band.bookingId));
 
+  // A list nothing left or joined stays the very same array, so the serialiser reuses its bytes (SectionedGzip).
   return {
     ...board,
     assignments,
     jobs,
     trayJobIds,
-    conflicts: [
-      ...board.conflicts.filter((conflict) => !affected.has(conflict.assignmentId)),
-      ...change.conflicts.filter((conflict) => shown.has(conflict.assignmentId) && conflictShows(view, conflict)),
-    ],
-    accessBands: [
-      ...board.accessBands.filter((band) => !bookings.has(band.bookingId) && !band.jobIds.includes(job.id)),
-      ...change.accessBands.filter((band) => band.jobIds.some((id) => id in jobs)),
-    ],
-    weather: [...board.weather.filter((day) => day.jobId !== job.id), ...(after ? change.weather.filter((day) => day.assignmentId === after.id) : [])],
-    holdDays: after ? board.holdDays : board.holdDays.filter((day) => day.jobId !== job.id),
+    conflicts: replaced(
+      board.conflicts,
+      (conflict) => !affected.has(conflict.assignmentId),
+      change.conflicts.filter((conflict) => shown.has(conflict.assignmentId) && conflictShows(view, conflict)),
+    ),
+    accessBands: replaced(
+      board.accessBands,
+      (band) => !bookings.has(band.bookingId) && !band.jobIds.includes(job.id),
+      change.accessBands.filter((band) => band.jobIds.some((id) => id in jobs)),
+    ),
+    weather: replaced(board.weather, (day) => day.jobId !== job.id, after ? change.weather.filter((day) => day.assignmentId === after.id) : []),
+    holdDays: after ? board.holdDays : replaced(board.holdDays, (day) => day.jobId !== job.id, []),
     lastEventId: Math.max(board.lastEventId, eventId),
   };
+}
+
+/** The items kept, then the items added; the list itself when it keeps all and gains none. */
+function replaced<T>(items: T[], keep: (item: T) => boolean, added: T[]): T[] {
+  const kept = items.filter(keep);
+  return kept.length === items.length && added.length === 0 ? items : [...kept, ...added];
 }
 
 /**
