@@ -20,12 +20,32 @@ vi.mock('@/realtime/socket', () => ({
 }));
 const store = { range: { from: '2027-03-01', to: '2027-03-14' }, isLoading: false, catchUp: vi.fn(), reload: vi.fn(), applyEvent: vi.fn() };
 vi.mock('@/stores/schedule-store', () => ({ useScheduleStore: () => store }));
+vi.mock('@/utils/after-paint', () => ({ afterNextPaint: () => Promise.resolve() }));
 vi.mock('@/stores/session-store', () => ({ useSessionStore: () => ({ isSignedIn: true, user: { name: 'Dev Okafor' } }) }));
 
 const { useBoardLive } = await import('./use-board-live');
 
-function mountBoard() {
-  return mount(defineComponent({ setup: () => (useBoardLive(), () => h('div')) }));
+type UseConnection = Parameters<ReturnType<typeof useBoardLive>['whenConnecting']>[0];
+
+const Board = defineComponent({
+  props: { use: { type: Function, default: undefined } },
+  setup: (props) => {
+    const live = useBoardLive();
+    if (props.use) live.whenConnecting(props.use as UseConnection);
+    return () => h('div');
+  },
+});
+
+/** The connection's code loads once the board has painted (at once here); this waits for it. */
+async function settled(): Promise<void> {
+  await vi.dynamicImportSettled();
+  await Promise.resolve();
+}
+
+async function mountBoard() {
+  const wrapper = mount(Board);
+  await settled();
+  return wrapper;
 }
 
 async function connect(): Promise<void> {
@@ -50,14 +70,14 @@ beforeEach(() => {
 
 describe('useBoardLive', () => {
   it('replays the schedule changes on the first connection without reading the whole board again', async () => {
-    mountBoard();
+    await mountBoard();
     await connect();
     expect(store.catchUp).toHaveBeenCalledTimes(1);
     expect(store.reload).not.toHaveBeenCalled();
   });
 
   it('after a dropped connection, replays the changes and then reads the board again for the notices it missed', async () => {
-    mountBoard();
+    await mountBoard();
     await connect();
     await drop();
     await connect();
@@ -70,8 +90,23 @@ describe('useBoardLive', () => {
     expect(store.reload).toHaveBeenCalledTimes(1);
   });
 
+  it('starts the connection only after the board has painted, then hands it to the view, and lets go when the board goes', async () => {
+    const { realtime } = await import('@/realtime/socket');
+    vi.mocked(realtime.start).mockClear();
+    const stop = vi.fn();
+    const use = vi.fn(() => [stop]);
+    const wrapper = mount(Board, { props: { use } });
+    expect(realtime.start).not.toHaveBeenCalled();
+    expect(use).not.toHaveBeenCalled();
+    await settled();
+    expect(realtime.start).toHaveBeenCalledTimes(1);
+    expect(use).toHaveBeenCalledWith(realtime);
+    wrapper.unmount();
+    expect(stop).toHaveBeenCalledTimes(1);
+  });
+
   it('reads the board again when the replay itself fails', async () => {
-    mountBoard();
+    await mountBoard();
     store.catchUp.mockRejectedValueOnce(new Error('offline'));
     await connect();
     expect(store.reload).toHaveBeenCalledTimes(1);
