@@ -4,6 +4,7 @@ import vue from '@vitejs/plugin-vue';
 import { VitePWA } from 'vite-plugin-pwa';
 import { crewPwa } from './pwa.config.ts';
 import { prebuiltPrimeVueTheme, primevueThemeStylesLeftOut } from './vite/primevue-theme.ts';
+import { primeiconsSubset } from './vite/primeicons-subset.ts';
 
 const apiTarget = 'http://127.0.0.1:3000';
 
@@ -51,7 +52,7 @@ function preloadAppAfterShell(): Plugin {
 }
 
 export default defineConfig({
-  plugins: [vue(), VitePWA(crewPwa), primevueThemeStylesLeftOut(), prebuiltPrimeVueTheme(fileURLToPath(new URL('./src', import.meta.url))), preloadAppAfterShell()],
+  plugins: [vue(), VitePWA(crewPwa), primevueThemeStylesLeftOut(), prebuiltPrimeVueTheme(fileURLToPath(new URL('./src', import.meta.url))), primeiconsSubset(fileURLToPath(new URL('./src', import.meta.url))), preloadAppAfterShell()],
   resolve: {
     alias: [
       { find: '@', replacement: fileURLToPath(new URL('./src', import.meta.url)) },
