@@ -135,11 +135,14 @@ export class AccessService {
     });
   }
 
-  async list(actor: Actor, query: { jobId?: string; state?: AccessState }): Promise<AccessBookingDto[]> {
+  /** The bookings the actor may see; `jobIds` (any of them) and `id` narrow it for callers inside the API. */
+  async list(actor: Actor, query: { jobId?: string; state?: AccessState; jobIds?: string[]; id?: string }): Promise<AccessBookingDto[]> {
     requirePermission(actor, 'access:read');
     const manager = this.dataSource.manager;
     const builder = new FirmScope(manager, actor.firmId).query(AccessBooking, 'b').innerJoinAndSelect('b.supplier', 'supplier').orderBy('b.created_at', 'DESC');
     if (query.jobId) builder.andWhere(':jobId = ANY(b.job_ids)', { jobId: query.jobId });
+    if (query.jobIds) builder.andWhere('b.job_ids && :jobIds::uuid[]', { jobIds: query.jobIds });
+    if (query.id) builder.andWhere('b.id = :id', { id: query.id });
     if (query.state) builder.andWhere('b.state = :state', { state: query.state });
     if (!['owner', 'office'].includes(actor.role)) {
       const ownJobs = await this.jobsOfCrews(manager, actor);
@@ -153,8 +156,7 @@ export class AccessService {
 
   async get(actor: Actor, id: string): Promise<AccessBookingDto> {
     requirePermission(actor, 'access:read');
-    const list = await this.list(actor, {});
-    const found = list.find((booking) => booking.id === id);
+    const [found] = await this.list(actor, { id });
     if (!found) throw errors.notFound('Access booking');
     return found;
   }

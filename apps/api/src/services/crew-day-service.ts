@@ -61,8 +61,7 @@ export class CrewDayService {
   async days(actor: Actor, query: { from?: string; days: number }): Promise<CrewDaysDto> {
     requirePermission(actor, 'jobs:read');
     const manager = this.dataSource.manager;
-    const firm = await manager.findOneByOrFail(Firm, { id: actor.firmId });
-    const calendars = await loadCalendars(manager, actor.firmId);
+    const [firm, calendars] = await Promise.all([manager.findOneByOrFail(Firm, { id: actor.firmId }), loadCalendars(manager, actor.firmId)]);
     const today = todayIn(firm.timeZone, this.clock());
     const from = query.from ?? today;
     const ahead: string[] = [];
@@ -75,7 +74,7 @@ export class CrewDayService {
     const [jobs, holds, access, materials, notes, photos] = await Promise.all([
       jobIds.length ? manager.find(Job, { where: { firmId: actor.firmId, id: In(jobIds) }, relations: { site: true, client: true } }) : [],
       this.holdsFor(manager, actor.firmId, jobIds),
-      jobIds.length ? this.access.list(actor, {}) : Promise.resolve([] as AccessBookingDto[]),
+      jobIds.length ? this.access.list(actor, { jobIds }) : Promise.resolve([] as AccessBookingDto[]),
       this.materialsFor(manager, actor.firmId, jobIds),
       this.notes.listForJobs(actor, jobIds),
       this.photos.listForJobs(actor, jobIds),
