@@ -1,4 +1,4 @@
-import { compareTrayJobs, TRAY_STATUSES, type BoardAssignmentDto, type BoardDto, type ConflictDto, type ScheduleChangeDto } from '@hodboard/shared';
+import { compareTrayJobs, conflictWithin, TRAY_STATUSES, type BoardAssignmentDto, type BoardDto, type ScheduleChangeDto } from '@hodboard/shared';
 
 /** Which board a cached copy is: its range, whose crews it shows (null: every crew) and whether it carries the tray. */
 export interface BoardView {
@@ -56,7 +56,7 @@ export function patchBoard(board: BoardDto, change: ScheduleChangeDto, eventId: 
     conflicts: replaced(
       board.conflicts,
       (conflict) => !affected.has(conflict.assignmentId),
-      change.conflicts.filter((conflict) => shown.has(conflict.assignmentId) && conflictShows(view, conflict)),
+      change.conflicts.filter((conflict) => shown.has(conflict.assignmentId) && conflictWithin(view, conflict)),
     ),
     accessBands: replaced(
       board.accessBands,
@@ -73,14 +73,6 @@ export function patchBoard(board: BoardDto, change: ScheduleChangeDto, eventId: 
 function replaced<T>(items: T[], keep: (item: T) => boolean, added: T[]): T[] {
   const kept = items.filter(keep);
   return kept.length === items.length && added.length === 0 ? items : [...kept, ...added];
-}
-
-/**
- * A board lists the conflicts on its own days and those of no one day. A clash beyond its last day is left to the
- * board that shows that day: this one does not hold the cards on it, so it could not list them all.
- */
-export function conflictShows(view: BoardView, conflict: ConflictDto): boolean {
-  return conflict.date === null || (conflict.date >= view.from && conflict.date <= view.to);
 }
 
 function shows(view: BoardView, assignment: { crewId: string; days: string[]; startDate: string }): boolean {

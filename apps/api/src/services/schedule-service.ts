@@ -3,6 +3,7 @@ import { queriesOf } from '../lib/queries-of.js';
 import {
   can,
   compareTrayJobs,
+  conflictWithin,
   doubleBookedDays,
   SCHEDULE_CHANGES_PAGE,
   scheduleConflicts,
@@ -29,7 +30,7 @@ import type { EventBus } from '../lib/event-bus.js';
 import type { AccessService, AfterCommit } from './access-service.js';
 import type { WeatherService } from './weather/weather-service.js';
 import { requirePermission, type Actor } from './actor.js';
-import { conflictShows, type BoardView } from './board-patch.js';
+import type { BoardView } from './board-patch.js';
 import { recordAudit, recordAudits } from './audit-service.js';
 import { datesBetween, loadCalendars, type FirmCalendars } from './calendar-service.js';
 import { FirmScope } from './firm-scope.js';
@@ -97,7 +98,7 @@ export class ScheduleService {
       assignments,
       jobs: Object.fromEntries(jobs),
       trayJobIds: trayJobs.sort(compareTrayJobs).map((job) => job.id),
-      conflicts: assessed.conflicts.filter((conflict) => conflictShows(view, conflict)),
+      conflicts: assessed.conflicts.filter((conflict) => conflictWithin(view, conflict)),
       weather: assessed.weather,
       accessBands,
       holdDays,

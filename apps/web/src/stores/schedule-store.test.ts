@@ -108,6 +108,18 @@ describe('applyEvent', () => {
     expect(store.assignmentsByCrew.get(crewB)?.map((a) => a.id)).toEqual(['as-2']);
   });
 
+  it('takes a recomputed conflict only on the days it shows, as a fresh read of the board would list them', async () => {
+    const store = await loaded();
+    const moved = assignment('as-2', 'job-2', crewA, ['2027-03-12', '2027-03-15'], 2);
+    const onShownDay = { ...conflict('as-2', 'job-2', 'Crew is also booked on J0005 this day'), date: '2027-03-12' };
+    const beyond = { ...conflict('as-2', 'job-2', 'Crew is also booked on J0006 this day'), date: '2027-03-15' };
+    const undated = { ...conflict('as-2', 'job-2', 'Finishes after the target date'), kind: 'after-target-finish' as const, date: null };
+
+    store.applyEvent(change({ assignment: moved, job: job('job-2', 'J0002'), affectedAssignmentIds: ['as-2'], conflicts: [onShownDay, beyond, undated] }), 41);
+
+    expect(store.conflicts.filter((c) => c.assignmentId === 'as-2')).toEqual([onShownDay, undated]);
+  });
+
   it('ignores an event it has already applied, such as one replayed after a reconnect', async () => {
     const store = await loaded();
     const moved = assignment('as-1', 'job-1', crewA, ['2027-03-08'], 2);

@@ -12,6 +12,7 @@ import {
   type ConflictKind,
   type ScheduleChangeDto,
   compareTrayJobs,
+  conflictWithin,
   SCHEDULE_CHANGES_PAGE,
   TRAY_STATUSES,
 } from '@hodboard/shared';
@@ -227,7 +228,7 @@ export const useScheduleStore = defineStore('schedule', () => {
     const affected = new Set(change.affectedAssignmentIds);
     conflicts.value = [
       ...conflicts.value.filter((conflict) => !affected.has(conflict.assignmentId)),
-      ...change.conflicts.filter((conflict) => assignments.value[conflict.assignmentId]),
+      ...change.conflicts.filter((conflict) => assignments.value[conflict.assignmentId] && (!range.value || conflictWithin(range.value, conflict))),
     ];
     return true;
   }

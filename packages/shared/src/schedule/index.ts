@@ -3,4 +3,4 @@ export * from './time-off-rule.js';
 export * from './job-activities.js';
 export * from './replan.js';
 export * from './changes.js';
-export * from './tray.js';
+export * from './board-lists.js';
