@@ -102,8 +102,8 @@ export class BoardCache {
     const view = this.schedule.boardView(actor, query);
     const minute = Math.floor(this.clock().getTime() / 60_000);
     const version = `${this.everyFirm}.${this.versions.get(actor.firmId) ?? 0}`;
-    const sees = view.hasTray ? 'office' : `crews:${view.crewIds?.join(',')}`;
-    const key = [actor.firmId, version, minute, sees, query.from, query.to, query.crewId ?? ''].join('|');
+    // The view is what the reader gets (the tray or not, which crews), so two readers who get the same board share it.
+    const key = [actor.firmId, version, minute, view.hasTray ? 'tray' : '', view.crewIds?.join(',') ?? 'every crew', view.from, view.to].join('|');
     const known = this.entries.get(key);
     if (known) {
       // Most recently used last, so the oldest is the first to go.

@@ -8,7 +8,6 @@ export interface BoardView {
   hasTray: boolean;
 }
 
-
 /**
  * The board as a full rebuild would read it after one schedule change, made from the board before it and the change
  * the schedule service published. Null when the change cannot be applied from what it carries: a job coming onto this
@@ -97,4 +96,3 @@ function insertionIndex(assignments: BoardAssignmentDto[], startDate: string): n
   }
   return low;
 }
-

@@ -39,7 +39,6 @@ import { formatAddress } from './site-service.js';
 type CreateValues = z.output<typeof assignmentCreateSchema>;
 type UpdateValues = z.output<typeof assignmentUpdateSchema>;
 
-
 export class ScheduleService {
   constructor(
     private readonly dataSource: DataSource,

@@ -50,7 +50,6 @@ export interface MoveTarget {
 /** Placements waiting for the server carry this id until the real one comes back. */
 export const pendingAssignmentId = (jobId: string) => `pending:${jobId}`;
 
-
 export function addDaysIso(date: string, days: number): string {
   const d = new Date(`${date}T00:00:00Z`);
   d.setUTCDate(d.getUTCDate() + days);

@@ -3,6 +3,8 @@ import type { JobPriority, JobStatus } from '../schemas/jobs.js';
 /** Job statuses that may be put on a crew, and that the tray holds while the job is on none. */
 export const TRAY_STATUSES: ReadonlySet<JobStatus> = new Set<JobStatus>(['booked', 'stood-down']);
 
+// Spelled out rather than read from `jobPriorities`: that list lives with the zod schemas, which the board's first
+// screens do not load. The Record type still refuses a priority left out.
 const PRIORITY_RANK: Record<JobPriority, number> = { low: 0, normal: 1, high: 2, urgent: 3 };
 
 /** The tray's order: the most urgent first, then by reference. */
