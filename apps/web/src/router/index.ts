@@ -16,7 +16,9 @@ export function createAppRouter(): Router {
     // The router fetches a view's code only after the guards; on the first visit they wait on the server,
     // so start the download now and let both waits overlap.
     if (!session.isRestored) preloadViews(to);
-    await session.restore();
+    // A profile saved on this phone opens the app at once; a page for signed-out visitors waits for the server, so a
+    // stale profile cannot redirect an e-mailed link away before the server has said it is stale.
+    await (to.meta.isGuestOnly ? session.restoreConfirmed() : session.restore());
     return runGuards(to, session) ?? true;
   });
 

@@ -184,6 +184,23 @@ describe('useSessionStore', () => {
       expect(localStorage.getItem('hodboard:last-session')).toBeNull();
     });
 
+    it('for a page only signed-out visitors see, waits for the server to refuse a stale saved profile', async () => {
+      localStorage.setItem('hodboard:last-session', JSON.stringify({ user: session.user, firm: session.firm, role: 'operative', crewIds: [] }));
+      let refuse: (error: ApiError) => void = () => undefined;
+      vi.mocked(authApi.refreshSession).mockReturnValue(new Promise((_resolve, reject) => {
+        refuse = reject;
+      }));
+
+      const store = useSessionStore();
+      await store.restore();
+      expect(store.isSignedIn).toBe(true);
+      const confirmed = store.restoreConfirmed();
+      refuse(refused());
+      await confirmed;
+      expect(store.isSignedIn).toBe(false);
+      expect(store.isFromDevice).toBe(false);
+    });
+
     it('stays signed out offline when nothing was saved on this device', async () => {
       vi.mocked(authApi.refreshSession).mockRejectedValue(noAnswer());
       const store = useSessionStore();

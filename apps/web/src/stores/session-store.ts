@@ -26,6 +26,8 @@ export const useSessionStore = defineStore('session', () => {
   const isUnreachable = ref(false);
   let restoring: Promise<void> | null = null;
   let confirming: Promise<void> | null = null;
+  /** The page load's first check of the session with the server; settled once it has answered (or cannot be reached). */
+  let firstAnswer: Promise<void> = Promise.resolve();
 
   const user = computed(() => profile.value?.user ?? null);
   const firm = computed(() => profile.value?.firm ?? null);
@@ -109,6 +111,7 @@ export const useSessionStore = defineStore('session', () => {
     restoring ??= (async () => {
       const saved = readLastSession();
       const confirmed = confirm();
+      firstAnswer = confirmed;
       if (saved && !profile.value) {
         profile.value = saved;
         isFromDevice.value = true;
@@ -118,6 +121,15 @@ export const useSessionStore = defineStore('session', () => {
       isRestored.value = true;
     })();
     return restoring;
+  }
+
+  /**
+   * Restores the session and waits for the server's answer even when a saved profile opened the app at once: for a
+   * page only a signed-out visitor sees (an e-mailed invitation or reset link), which a stale profile would send away.
+   */
+  async function restoreConfirmed(): Promise<void> {
+    await restore();
+    await firstAnswer;
   }
 
   if (typeof window !== 'undefined') {
@@ -161,6 +173,7 @@ export const useSessionStore = defineStore('session', () => {
     signUp,
     acceptInvite,
     restore,
+    restoreConfirmed,
     signOut,
     hasPermission,
     renameFirm,
