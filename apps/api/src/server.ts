@@ -49,6 +49,8 @@ const refreshForecasts = async () => {
   await services.weather.releasePassedStandDowns().catch((error: unknown) => logger.error({ err: error }, 'stand-down release failed'));
 };
 const firstRefresh = setTimeout(refreshForecasts, 2_000);
+// A job placed this week at a site never forecast gets its forecast now, not at the next beat.
+const stopFollowingPlacements = services.forecasts.followPlacements(services.events);
 const forecastTimer = setInterval(refreshForecasts, config.FORECAST_REFRESH_MINUTES * 60_000);
 forecastTimer.unref();
 
@@ -56,6 +58,7 @@ async function shutdown(signal: string): Promise<void> {
   logger.info({ signal }, 'shutting down');
   clearTimeout(firstRefresh);
   clearInterval(forecastTimer);
+  stopFollowingPlacements();
   // Closes the HTTP server too.
   await io.close();
   await dataSource.destroy().catch(() => undefined);

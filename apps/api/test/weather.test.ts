@@ -94,6 +94,40 @@ describe('forecasts on the board', () => {
     expect(day.reasons).toContainEqual(expect.objectContaining({ activity: 'bricklaying', ruleId: 'cold.mortar.cement', verdict: 'stop' }));
   });
 
+  it('fetches the forecast of a site never forecast as soon as a job there is placed in the coming week', async () => {
+    provider.scenario = 'gale';
+    const stop = h.services.forecasts.followPlacements(h.services.events);
+    try {
+      expect((await board()).weather.find((d) => d.date === '2027-03-25')).toBeUndefined();
+      await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
+        .send({ crewId: ids.crewId, startDate: '2027-03-29', workingDays: 2, version: 2 }).expect(200);
+      await h.services.forecasts.idle();
+      const view = await board();
+      expect(view.weather.find((d) => d.date === '2027-03-30')).toMatchObject({ verdict: 'stop', isStale: false });
+
+      // Once forecast, the site waits for the scheduled refresh: a second move fetches nothing.
+      provider.isDown = true;
+      await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
+        .send({ crewId: ids.crewId, startDate: '2027-03-25', workingDays: 2, version: 3 }).expect(200);
+      await h.services.forecasts.idle();
+      expect((await board()).weather.find((d) => d.date === '2027-03-25')).toMatchObject({ verdict: 'stop', isStale: false });
+    } finally {
+      stop();
+    }
+  });
+
+  it('leaves a placement beyond the forecast alone', async () => {
+    const stop = h.services.forecasts.followPlacements(h.services.events);
+    try {
+      await request(h.app).put(`/api/assignments/${ids.assignmentId}`).set(owner.auth)
+        .send({ crewId: ids.crewId, startDate: '2027-04-12', workingDays: 2, version: 2 }).expect(200);
+      await h.services.forecasts.idle();
+      expect((await countRows(h.dataSource)).forecast_fetch).toBe(0);
+    } finally {
+      stop();
+    }
+  });
+
   it('keeps the last good forecast and marks it stale when the service is down', async () => {
     provider.scenario = 'calm-week';
     await refresh();

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { Between, In, type DataSource, type EntityManager } from 'typeorm';
 import type { Logger } from 'pino';
-import type { ForecastHour } from '@hodboard/shared';
+import type { ForecastHour, ScheduleChangeDto } from '@hodboard/shared';
 import { Assignment, ForecastFetch, ForecastHourRow, Job, Site } from '../../entities/index.js';
 import type { Clock } from '../../lib/clock.js';
 import type { EventBus } from '../../lib/event-bus.js';
@@ -10,6 +10,8 @@ import type { ForecastProvider, Geocoder } from './forecast-provider.js';
 const FORECAST_DAYS = 8;
 /** Older than this, a forecast is shown as stale on the board. */
 export const STALE_AFTER_MS = 6 * 3_600_000;
+/** A site whose first fetch failed is not asked again on every placement, only after this long. */
+const FIRST_FETCH_RETRY_MS = 10 * 60_000;
 
 export interface SiteForecast {
   hours: ForecastHour[];
@@ -22,6 +24,8 @@ export interface SiteForecast {
  * forecast stays and its age shows; the error is kept beside it.
  */
 export class ForecastService {
+  private readonly firstFetches = new Map<string, Promise<void>>();
+
   constructor(
     readonly dataSource: DataSource,
     private readonly provider: ForecastProvider,
@@ -33,8 +37,7 @@ export class ForecastService {
 
   /** Sites with placed work from today for the next week: the ones worth keeping fresh. */
   async sitesWithUpcomingWork(firmId?: string): Promise<Site[]> {
-    const today = this.clock().toISOString().slice(0, 10);
-    const horizon = new Date(this.clock().getTime() + 8 * 86_400_000).toISOString().slice(0, 10);
+    const { today, horizon } = this.forecastWindow();
     const query = this.dataSource.manager
       .createQueryBuilder(Site, 'site')
       .where((qb) => {
@@ -55,6 +58,46 @@ export class ForecastService {
       else failed += 1;
     }
     return { refreshed, failed };
+  }
+
+  /**
+   * A job placed in the coming week at a site that has never had a forecast would show no weather until the next
+   * scheduled refresh: fetch that site's forecast as soon as the placement is committed. The fetch publishes
+   * forecast:updated, so open boards read the new verdicts. Returns the unsubscribe.
+   */
+  followPlacements(events: EventBus): () => void {
+    return events.subscribe((event) => {
+      if (!event.type.startsWith('assignment:')) return;
+      const assignment = (event.payload as Partial<ScheduleChangeDto> | undefined)?.assignment;
+      if (!assignment) return;
+      const { today, horizon } = this.forecastWindow();
+      if (!assignment.days.some((date) => date >= today && date <= horizon)) return;
+      if (this.firstFetches.has(assignment.jobId)) return;
+      const fetching = this.fetchIfNeverForecast(event.firmId, assignment.jobId)
+        .catch((error: unknown) => this.logger.error({ err: error, jobId: assignment.jobId }, 'first forecast fetch failed'))
+        .finally(() => this.firstFetches.delete(assignment.jobId));
+      this.firstFetches.set(assignment.jobId, fetching);
+    });
+  }
+
+  /** Settles once every first fetch started by a placement has finished. */
+  async idle(): Promise<void> {
+    while (this.firstFetches.size > 0) await Promise.all(this.firstFetches.values());
+  }
+
+  private async fetchIfNeverForecast(firmId: string, jobId: string): Promise<void> {
+    const manager = this.dataSource.manager;
+    const job = await manager.findOne(Job, { where: { firmId, id: jobId }, relations: { site: true } });
+    if (!job?.site) return;
+    const fetch = await manager.findOneBy(ForecastFetch, { siteId: job.site.id });
+    if (fetch?.lastSuccessAt) return;
+    if (fetch?.lastAttemptAt && this.clock().getTime() - fetch.lastAttemptAt.getTime() < FIRST_FETCH_RETRY_MS) return;
+    await this.refreshSite(job.site);
+  }
+
+  private forecastWindow(): { today: string; horizon: string } {
+    const now = this.clock().getTime();
+    return { today: new Date(now).toISOString().slice(0, 10), horizon: new Date(now + FORECAST_DAYS * 86_400_000).toISOString().slice(0, 10) };
   }
 
   /** Returns true when a fresh forecast was stored. */
