@@ -37,12 +37,15 @@ async function photos(page: Page): Promise<Array<{ name: string; mimeType: strin
   return urls.map((url, index) => ({ name: `wall-${index + 1}.jpg`, mimeType: 'image/jpeg', buffer: Buffer.from(url.split(',')[1]!, 'base64') }));
 }
 
+/** The crew home's second section: "Tomorrow", or "Next working day" on a Friday or before a holiday. */
+const NEXT_DAY = /^(Tomorrow|Next working day)/;
+
 test.describe('the crew phone', () => {
   test('a lead sees tomorrow with its notes, adds two photos, stands down for wind and the office sees it live', async ({ page, browser, request }, info) => {
     test.setTimeout(90_000);
     await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
     await expect(page.getByRole('heading', { level: 1, name: 'Your days' })).toBeVisible();
-    const tomorrow = page.getByRole('region', { name: /^Tomorrow/ });
+    const tomorrow = page.getByRole('region', { name: NEXT_DAY });
     const card = tomorrow.getByRole('article').first();
     await expect(card.getByRole('heading', { level: 3 })).toContainText(/J\d{4}/);
     await expect(card.getByRole('link', { name: 'Open in maps' })).toHaveAttribute('href', /^geo:/);
@@ -75,7 +78,7 @@ test.describe('the crew phone', () => {
     await signIn(officePage, DEMO_USERS.office.email, DEMO_USERS.office.password);
     await officePage.goto('/crew');
     const reference = (await card.getByRole('heading', { level: 3 }).innerText()).match(/J\d{4}/)![0];
-    const officeCard = officePage.getByRole('region', { name: /^Tomorrow/ }).getByRole('article').filter({ hasText: reference }).first();
+    const officeCard = officePage.getByRole('region', { name: NEXT_DAY }).getByRole('article').filter({ hasText: reference }).first();
     await expect(officeCard).toBeVisible();
     await expect(officeCard.getByRole('status')).toHaveCount(0);
 
@@ -153,7 +156,7 @@ test.describe('the crew phone', () => {
   test("reopened with no signal, the phone shows the crew home from what it saved, and what waits is still queued", async ({ page, context, request }, info) => {
     test.setTimeout(90_000);
     await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
-    const tomorrowCard = page.getByRole('region', { name: /^Tomorrow/ }).getByRole('article').first();
+    const tomorrowCard = page.getByRole('region', { name: NEXT_DAY }).getByRole('article').first();
     const tomorrowRef = (await tomorrowCard.getByRole('heading', { level: 3 }).innerText()).match(/J\d{4}/)![0];
     // The installed app's code must be on the phone before the signal goes: wait for the service worker.
     await page.evaluate(async () => {
@@ -173,7 +176,7 @@ test.describe('the crew phone', () => {
     await expect(page.getByRole('heading', { level: 1, name: 'Your days' })).toBeVisible();
     await expect(page).toHaveURL(/\/crew$/);
     await expect(page.getByRole('status').filter({ hasText: 'Offline — showing what was last seen' })).toBeVisible();
-    await expect(page.getByRole('region', { name: /^Tomorrow/ }).getByRole('article').filter({ hasText: tomorrowRef })).toBeVisible();
+    await expect(page.getByRole('region', { name: NEXT_DAY }).getByRole('article').filter({ hasText: tomorrowRef })).toBeVisible();
     const outbox = page.getByRole('region', { name: /waiting to send/ });
     await expect(outbox).toContainText('1 waiting to send');
     const reopenedToday = page.getByRole('region', { name: /^Today/ }).getByRole('article').filter({ hasText: todayRef }).first();
@@ -207,7 +210,7 @@ test.describe('the crew phone', () => {
     // The phone connects for pushes once its days have loaded.
     await expect(page.locator('.crew-home[data-live="live"]')).toBeVisible({ timeout: 15_000 });
 
-    const days = await read<{ tomorrow: string; days: Array<{ crewId: string; crewName: string }> }>(await request.get('/api/crew-days', { headers: lead }));
+    const days = await read<{ nextDay: string; days: Array<{ crewId: string; crewName: string }> }>(await request.get('/api/crew-days', { headers: lead }));
     const crewId = days.days.find((day) => day.crewName === 'Stack crew')!.crewId;
     const sites = await read<{ items: Array<{ id: string; clientId: string }> }>(await request.get('/api/sites?pageSize=1', { headers: office }));
     const created = await read<{ id: string; version: number; reference: string }>(await request.post('/api/jobs', {
@@ -217,12 +220,12 @@ test.describe('the crew phone', () => {
     const job = await read<{ id: string; version: number; reference: string }>(await request.post(`/api/jobs/${created.id}/status`, { headers: office, data: { status: 'booked', version: created.version } }));
     const placed = await read<{ assignment: { id: string; version: number } }>(await request.post('/api/assignments', {
       headers: office,
-      data: { jobId: job.id, crewId, startDate: days.tomorrow, confirmDoubleBooking: true },
+      data: { jobId: job.id, crewId, startDate: days.nextDay, confirmDoubleBooking: true },
     }));
 
-    const banner = page.getByRole('alert').filter({ hasText: "Tomorrow's job changed" });
+    const banner = page.getByRole('alert').filter({ hasText: /(Tomorrow|Monday|Tuesday|Wednesday|Thursday|Friday)'s job changed/ });
     await expect(banner).toContainText(job.reference);
-    await expect(banner).toContainText('It is new for tomorrow');
+    await expect(banner).toContainText(/It is new for (tomorrow|\w+day):/);
     await screenShot(page, info, 'crew-tomorrow-changed');
     await banner.getByRole('button', { name: 'Dismiss' }).click();
     await expect(banner).toHaveCount(0);

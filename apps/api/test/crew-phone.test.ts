@@ -260,7 +260,7 @@ describe('the crew home', () => {
     await request(h.app).post('/api/site-notes').set(lead.auth).send({ jobId: ids.jobId, body: 'Tarp the pallets tonight' }).expect(201);
 
     const forLead = (await request(h.app).get('/api/crew-days').set(lead.auth).expect(200)).body as CrewDaysDto;
-    expect(forLead).toMatchObject({ today: '2027-02-28', tomorrow: '2027-03-01', isLead: true });
+    expect(forLead).toMatchObject({ today: '2027-02-28', nextDay: '2027-03-01', isLead: true });
     expect(forLead.days.map((d) => d.date)).toEqual(['2027-03-01', '2027-03-02', '2027-03-03']);
     const tomorrow = forLead.days[0]!;
     expect(tomorrow).toMatchObject({
@@ -275,6 +275,13 @@ describe('the crew home', () => {
 
     const forOperative = (await request(h.app).get('/api/crew-days').set(operative.auth).expect(200)).body as CrewDaysDto;
     expect(forOperative.days[0]!.client).toBeNull();
+  });
+
+  it('gives a crew on a Friday evening Monday as its next day, not the Saturday', async () => {
+    h.now.value = new Date('2027-02-26T17:30:00Z');
+    const days = (await request(h.app).get('/api/crew-days').set(lead.auth).expect(200)).body as CrewDaysDto;
+    expect(days).toMatchObject({ today: '2027-02-26', nextDay: '2027-03-01' });
+    expect(days.days.filter((d) => d.date === days.nextDay).map((d) => d.job.title)).toEqual(['Repoint barn gable']);
   });
 
   it('stores a note sent twice with one idempotency key once', async () => {

@@ -134,7 +134,7 @@ export class CrewDayService {
 
     return {
       today,
-      tomorrow: ahead[0]! === addDays(today, 1) ? ahead[0]! : addDays(today, 1),
+      nextDay: ahead[0]!,
       timeZone: firm.timeZone,
       days,
       ahead: aheadDays,

@@ -21,9 +21,9 @@ const lead: SessionDto = {
   crewIds: ['c1'],
 };
 
-function daysWith(jobId: string | null): CrewDaysDto {
-  const day = jobId ? [{ date: '2027-03-10', crewId: 'c1', assignmentId: 'a-old', job: { id: jobId, reference: 'J0100', title: 'Garden wall' } }] : [];
-  return { today: '2027-03-09', tomorrow: '2027-03-10', days: day } as unknown as CrewDaysDto;
+function daysWith(jobId: string | null, today = '2027-03-09', nextDay = '2027-03-10'): CrewDaysDto {
+  const day = jobId ? [{ date: nextDay, crewId: 'c1', assignmentId: 'a-old', job: { id: jobId, reference: 'J0100', title: 'Garden wall' } }] : [];
+  return { today, nextDay, days: day } as unknown as CrewDaysDto;
 }
 
 function pushed(days: string[] | null, crewId = 'c1'): ScheduleChangedMessage {
@@ -56,7 +56,22 @@ describe('useCrewStore, a schedule push', () => {
     const crew = useCrewStore();
     crew.data = daysWith(tomorrowsJob);
     crew.applyEvent(pushed(days));
-    expect(crew.tomorrowChange).toEqual({ reference: 'J0100', title: 'Garden wall', summary, by: 'Ned Tregear' });
+    expect(crew.nextDayChange).toEqual({ reference: 'J0100', title: 'Garden wall', summary, by: 'Ned Tregear' });
+  });
+
+  it('names the weekday when the next working day is after a weekend', () => {
+    const crew = useCrewStore();
+    // Friday 12 March 2027; the crew's next working day is Monday 15 March.
+    crew.data = daysWith(null, '2027-03-12', '2027-03-15');
+    expect(crew.nextDayName).toBe('Monday');
+    crew.applyEvent(pushed(['2027-03-15']));
+    expect(crew.nextDayChange?.summary).toBe('It is new for Monday: on Mon 15 Mar only.');
+  });
+
+  it('calls the next working day tomorrow when it is', () => {
+    const crew = useCrewStore();
+    crew.data = daysWith(null);
+    expect(crew.nextDayName).toBe('Tomorrow');
   });
 
   it("says nothing for another crew's change or one that does not touch tomorrow", () => {
@@ -64,6 +79,6 @@ describe('useCrewStore, a schedule push', () => {
     crew.data = daysWith(null);
     crew.applyEvent(pushed(['2027-03-10'], 'c2'));
     crew.applyEvent(pushed(['2027-03-15']));
-    expect(crew.tomorrowChange).toBeNull();
+    expect(crew.nextDayChange).toBeNull();
   });
 });

@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef, watch } from 'vue';
-import { format, parseISO } from 'date-fns';
+import { addDays, format, parseISO } from 'date-fns';
 import type { CrewDayDto, CrewDaysDto, HoldReason, PhotoDto, ScheduleChangedMessage, SiteNoteDto } from '@hodboard/shared';
 import { getCrewDays, raiseStandDown, takePrefetchedCrewDays } from '@/api/crew-days';
 import { isApiError } from '@/api/http';
@@ -11,7 +11,7 @@ import { idbOutboxStore, loadSnapshot, saveSnapshot } from '@/offline/idb';
 import { newIdempotencyKey, Outbox, type OutboxItem, type OutboxSnapshot, type OutboxStore } from '@/offline/outbox';
 import { useSessionStore } from './session-store';
 
-export interface TomorrowChange {
+export interface NextDayChange {
   reference: string;
   title: string;
   summary: string;
@@ -43,12 +43,18 @@ export const useCrewStore = defineStore('crew', () => {
   const loadError = ref<string | null>(null);
   const isOnline = ref(typeof navigator === 'undefined' ? true : navigator.onLine);
   const outboxState = shallowRef<OutboxSnapshot>({ items: [], progress: {} });
-  const tomorrowChange = shallowRef<TomorrowChange | null>(null);
+  const nextDayChange = shallowRef<NextDayChange | null>(null);
   let outbox: Outbox | null = null;
   let loading: Promise<void> | null = null;
 
   const today = computed(() => data.value?.days.filter((day) => day.date === data.value?.today) ?? []);
-  const tomorrow = computed(() => data.value?.days.filter((day) => day.date === data.value?.tomorrow) ?? []);
+  const nextDay = computed(() => data.value?.days.filter((day) => day.date === data.value?.nextDay) ?? []);
+  /** What the crew calls the next working day: "Tomorrow", or its weekday after a Friday or a holiday. */
+  const nextDayName = computed(() => {
+    if (!data.value) return 'Tomorrow';
+    const { today, nextDay: date } = data.value;
+    return format(addDays(parseISO(today), 1), 'yyyy-MM-dd') === date ? 'Tomorrow' : format(parseISO(date), 'EEEE');
+  });
   const waiting = computed(() => outboxState.value.items);
 
   function notesFor(jobId: string): SiteNoteDto[] {
@@ -179,30 +185,30 @@ export const useCrewStore = defineStore('crew', () => {
     return startOutbox().discard(id);
   }
 
-  /** A schedule push for one of my crews: say so when it touches tomorrow, then fetch the new days. */
+  /** A schedule push for one of my crews: say so when it touches the next working day, then fetch the new days. */
   function applyEvent(message: ScheduleChangedMessage): void {
     const { change } = message;
     if (!change.crewIds.some((id) => session.crewIds.includes(id)) || !data.value) return;
-    const nextDay = data.value.tomorrow;
-    const wasTomorrow = tomorrow.value.some((day) => day.job.id === change.job.id || day.assignmentId === change.removedAssignmentId);
-    const isTomorrow = Boolean(change.assignment?.days.includes(nextDay));
-    if (wasTomorrow || isTomorrow) {
+    const wasNextDay = nextDay.value.some((day) => day.job.id === change.job.id || day.assignmentId === change.removedAssignmentId);
+    const isNextDay = Boolean(change.assignment?.days.includes(data.value.nextDay));
+    if (wasNextDay || isNextDay) {
+      const name = nextDayName.value === 'Tomorrow' ? 'tomorrow' : nextDayName.value;
       const days = change.assignment?.days ?? [];
       const run = days.length === 0 ? 'unplaced' : days.length === 1 ? `on ${short(days[0]!)} only` : `${short(days[0]!)} to ${short(days[days.length - 1]!)}`;
       const summary = !change.assignment
         ? 'It is off the board for now; the office will tell you what comes instead.'
-        : !isTomorrow
-          ? `It no longer runs tomorrow: now ${run}.`
-          : wasTomorrow
+        : !isNextDay
+          ? `It no longer runs ${name}: now ${run}.`
+          : wasNextDay
             ? `Its days changed: now ${run}.`
-            : `It is new for tomorrow: ${run}.`;
-      tomorrowChange.value = { reference: change.job.reference, title: change.job.title, summary, by: change.actorName };
+            : `It is new for ${name}: ${run}.`;
+      nextDayChange.value = { reference: change.job.reference, title: change.job.title, summary, by: change.actorName };
     }
     void load();
   }
 
   function dismissChange(): void {
-    tomorrowChange.value = null;
+    nextDayChange.value = null;
   }
 
   return {
@@ -212,10 +218,11 @@ export const useCrewStore = defineStore('crew', () => {
     loadError,
     isOnline,
     today,
-    tomorrow,
+    nextDay,
+    nextDayName,
     waiting,
     outboxState,
-    tomorrowChange,
+    nextDayChange,
     notesFor,
     photosFor,
     waitingFor,

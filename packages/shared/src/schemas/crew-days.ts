@@ -87,7 +87,8 @@ export interface CrewWorkingDayDto {
 
 export interface CrewDaysDto {
   today: string;
-  tomorrow: string;
+  /** The first working day after today: tomorrow, or the Monday after a Friday. The crew reads its jobs the evening before. */
+  nextDay: string;
   timeZone: string;
   /** Job-days from today on, in date order. */
   days: CrewDayDto[];
