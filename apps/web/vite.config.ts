@@ -39,12 +39,18 @@ function preloadAppAfterShell(): Plugin {
         };
         for (const turn of turns) visit(turn.fileName);
         visit(app.fileName);
+        // The page's first script has its own script tag, at the priority a script tag gets.
+        for (const chunk of chunks) if (chunk.isEntry) scripts.delete(chunk.fileName);
         const base = '/';
+        // fetchpriority="low": the shell paints without any of these, so none of them should hold the first paint up,
+        // or be taken as holding it up (Lighthouse counts a high-priority script that lands before the first paint
+        // as one the paint waited for, which made its first-paint figure swing between runs of one build).
+        const attrs = { crossorigin: true, fetchpriority: 'low' };
         return [
           // crossorigin as on Vite's own stylesheet link for a dynamic import: a preload in another credentials
           // mode is not reused, and the stylesheet would download twice.
-          ...[...styles].map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', crossorigin: true, href: `${base}${file}` }, injectTo: 'head' as const })),
-          ...[...scripts].map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', crossorigin: true, href: `${base}${file}` }, injectTo: 'head' as const })),
+          ...[...styles].map((file) => ({ tag: 'link', attrs: { rel: 'preload', as: 'style', ...attrs, href: `${base}${file}` }, injectTo: 'head' as const })),
+          ...[...scripts].map((file) => ({ tag: 'link', attrs: { rel: 'modulepreload', ...attrs, href: `${base}${file}` }, injectTo: 'head' as const })),
         ];
       },
     },
@@ -81,11 +87,12 @@ export default defineConfig({
           groups: [
             // With them the modules the page's first script imports to run them a turn ahead of the app (src/boot/start.ts).
             { name: 'vue-vendor', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]|[\\/]src[\\/]boot[\\/]framework\.ts$/ },
-            // With PrimeVue's core, the small components and icons most screens show, rather than a chunk each: on a slow
-            // signal every extra file of a first screen costs a round trip.
+            // With PrimeVue's core, the small components most screens show, rather than a chunk each: on a slow signal every
+            // extra file of a first screen costs a round trip. Not its dialogs or icons: the first screens show neither, and
+            // they travel with the components that draw them.
             {
               name: 'primevue-core',
-              test: /node_modules[\\/](@primeuix|@primevue[\\/](core|icons)|primevue[\\/](button|dialog|focustrap|message|skeleton|tag|textarea|inputtext|useconfirm|usetoast|overlayeventbus|portal|progressbar|badge))[\\/]|[\\/]src[\\/]boot[\\/]component-library\.ts$/,
+              test: /node_modules[\\/](@primeuix|@primevue[\\/]core|primevue[\\/](button|message|skeleton|tag|textarea|inputtext|useconfirm|usetoast|overlayeventbus|portal|progressbar|badge))[\\/]|[\\/]src[\\/]boot[\\/]component-library\.ts$/,
             },
             // The payload schemas travel with zod, apart from the words screens show (shared/src/terms), so a screen
             // with no form to check (the crew's phone, at first) loads neither.

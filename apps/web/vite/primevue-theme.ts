@@ -6,7 +6,8 @@ import { HodboardPreset, themeOptions } from '../src/plugins/primevue-preset.ts'
 
 const MODULE_ID = 'virtual:primevue-theme.css';
 const RESOLVED_ID = `\0${MODULE_ID}`;
-const PRIMEVUE_IMPORT = /from\s+['"]primevue\/([a-z]+)['"]/g;
+// Static imports and import() calls alike: a component loaded on first use needs its styles as much as any other.
+const PRIMEVUE_IMPORT = /(?:from\s+|import\(\s*)['"]primevue\/([a-z]+)['"]/g;
 
 export function sourceFiles(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((entry) => {

@@ -2,6 +2,7 @@ import type { App } from 'vue';
 import PrimeVue from 'primevue/config';
 import ToastService from 'primevue/toastservice';
 import ConfirmationService from 'primevue/confirmationservice';
+import { installLazyOverlays } from './overlays';
 
 export { darkModeClass } from './dark-mode';
 
@@ -19,4 +20,5 @@ export function installPrimeVue(app: App): void {
   });
   app.use(ToastService);
   app.use(ConfirmationService);
+  installLazyOverlays(app);
 }
