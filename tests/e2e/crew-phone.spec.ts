@@ -40,6 +40,49 @@ async function photos(page: Page): Promise<Array<{ name: string; mimeType: strin
 /** The crew home's second section: "Tomorrow", or "Next working day" on a Friday or before a holiday. */
 const NEXT_DAY = /^(Tomorrow|Next working day)/;
 
+async function okJson<T>(response: Awaited<ReturnType<APIRequestContext['get']>>): Promise<T> {
+  expect(response.ok(), await response.text()).toBe(true);
+  return (await response.json()) as T;
+}
+
+interface OwnJob {
+  reference: string;
+  /** The section of the crew home its card is in. */
+  section: RegExp;
+  remove(): Promise<void>;
+}
+
+/**
+ * A one-day job of the test's own on the lead's crew, booked from today over what is there: at a weekend or on a
+ * holiday its span starts on the next working day, so the test has a card to work on whatever day it runs.
+ */
+async function ownJobForLead(request: APIRequestContext, title: string): Promise<OwnJob> {
+  const office = { Authorization: `Bearer ${await tokenFor(request, 'office')}` };
+  const lead = { Authorization: `Bearer ${await tokenFor(request, 'crewLead')}` };
+  const days = await okJson<{ today: string; days: Array<{ crewId: string; crewName: string }> }>(await request.get('/api/crew-days', { headers: lead }));
+  const crewId = days.days.find((day) => day.crewName === 'Stack crew')!.crewId;
+  const sites = await okJson<{ items: Array<{ id: string; clientId: string }> }>(await request.get('/api/sites?pageSize=1', { headers: office }));
+  const created = await okJson<{ id: string; version: number }>(await request.post('/api/jobs', {
+    headers: office,
+    data: { clientId: sites.items[0]!.clientId, siteId: sites.items[0]!.id, title: `${title} ${Date.now().toString(36)}`, workTypes: ['repointing'], estimatedWorkingDays: 1 },
+  }));
+  const job = await okJson<{ id: string; version: number; reference: string }>(await request.post(`/api/jobs/${created.id}/status`, { headers: office, data: { status: 'booked', version: created.version } }));
+  const placed = await okJson<{ assignment: { id: string; days: string[] } }>(await request.post('/api/assignments', {
+    headers: office,
+    data: { jobId: job.id, crewId, startDate: days.today, confirmDoubleBooking: true },
+  }));
+  return {
+    reference: job.reference,
+    section: placed.assignment.days[0] === days.today ? /^Today/ : NEXT_DAY,
+    async remove() {
+      // Read again: what the test did may have moved the assignment's version on.
+      const now = await okJson<{ days: Array<{ assignmentId: string; assignmentVersion: number }> }>(await request.get('/api/crew-days', { headers: lead }));
+      const version = now.days.find((day) => day.assignmentId === placed.assignment.id)?.assignmentVersion;
+      if (version !== undefined) await request.delete(`/api/assignments/${placed.assignment.id}?version=${version}`, { headers: office });
+    },
+  };
+}
+
 test.describe('the crew phone', () => {
   test('a lead sees tomorrow with its notes, adds two photos, stands down for wind and the office sees it live', async ({ page, browser, request }, info) => {
     test.setTimeout(90_000);
@@ -106,13 +149,11 @@ test.describe('the crew phone', () => {
 
   test('a note and a stand-down made with no signal wait on the phone and arrive once when it returns', async ({ page, context, request }) => {
     test.setTimeout(90_000);
+    const own = await ownJobForLead(request, 'Sill pointing');
+    const reference = own.reference;
     await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
-    const today = page.getByRole('region', { name: /^Today/ });
-    const open = today.getByRole('article').filter({ has: page.getByRole('button', { name: 'Stand down for weather' }) }).first();
-    await expect(open).toBeVisible();
-    const reference = (await open.getByRole('heading', { level: 3 }).innerText()).match(/J\d{4}/)![0];
-    // Held by its reference: once stood down, the card loses the button the first locator looked for.
-    const card = today.getByRole('article').filter({ hasText: reference }).first();
+    const card = page.getByRole('region', { name: own.section }).getByRole('article').filter({ hasText: reference }).first();
+    await expect(card.getByRole('button', { name: 'Stand down for weather' })).toBeVisible();
     const noteText = `Mortar boards washed and stacked ${Date.now().toString(36)}`;
 
     await context.setOffline(true);
@@ -151,10 +192,12 @@ test.describe('the crew phone', () => {
     const holds = (await (await request.get(`/api/weather-holds?jobId=${jobId}`, { headers: auth })).json()) as Array<{ reason: string }>;
     expect(holds.filter((hold) => hold.reason === 'rain')).toHaveLength(1);
     await shot(page, 'crew-back-online');
+    await own.remove();
   });
 
   test("reopened with no signal, the phone shows the crew home from what it saved, and what waits is still queued", async ({ page, context, request }, info) => {
     test.setTimeout(90_000);
+    const own = await ownJobForLead(request, 'Lintel check');
     await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
     const tomorrowCard = page.getByRole('region', { name: NEXT_DAY }).getByRole('article').first();
     const tomorrowRef = (await tomorrowCard.getByRole('heading', { level: 3 }).innerText()).match(/J\d{4}/)![0];
@@ -162,8 +205,8 @@ test.describe('the crew phone', () => {
     await page.evaluate(async () => {
       await navigator.serviceWorker.ready;
     });
-    const todayCard = page.getByRole('region', { name: /^Today/ }).getByRole('article').first();
-    const todayRef = (await todayCard.getByRole('heading', { level: 3 }).innerText()).match(/J\d{4}/)![0];
+    const todayRef = own.reference;
+    const todayCard = page.getByRole('region', { name: own.section }).getByRole('article').filter({ hasText: todayRef }).first();
     const noteText = `Lintel bearings checked ${Date.now().toString(36)}`;
 
     await context.setOffline(true);
@@ -179,7 +222,7 @@ test.describe('the crew phone', () => {
     await expect(page.getByRole('region', { name: NEXT_DAY }).getByRole('article').filter({ hasText: tomorrowRef })).toBeVisible();
     const outbox = page.getByRole('region', { name: /waiting to send/ });
     await expect(outbox).toContainText('1 waiting to send');
-    const reopenedToday = page.getByRole('region', { name: /^Today/ }).getByRole('article').filter({ hasText: todayRef }).first();
+    const reopenedToday = page.getByRole('region', { name: own.section }).getByRole('article').filter({ hasText: todayRef }).first();
     await expect(reopenedToday.getByRole('region', { name: 'Site notes' }).getByText('Waiting to send')).toBeVisible();
     await screenShot(page, info, 'crew-reopened-offline');
 
@@ -194,6 +237,7 @@ test.describe('the crew phone', () => {
     const jobId = days.days.find((day) => day.job.reference === todayRef)!.job.id;
     const notes = (await (await request.get(`/api/site-notes?jobId=${jobId}`, { headers: auth })).json()) as Array<{ body: string }>;
     expect(notes.filter((note) => note.body === noteText)).toHaveLength(1);
+    await own.remove();
   });
 
   // Last in the file: it puts a second job on the crew's tomorrow for as long as it runs.
