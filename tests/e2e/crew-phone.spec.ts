@@ -53,13 +53,14 @@ interface OwnJob {
 }
 
 /**
- * A one-day job of the test's own on the lead's crew, booked from today over what is there: at a weekend or on a
- * holiday its span starts on the next working day, so the test has a card to work on whatever day it runs.
+ * A one-day job of the test's own on the lead's crew, booked over what is there from today (or from the next working
+ * day): at a weekend or on a holiday a span from today starts on the next working day, so the test has a card to work
+ * on whatever day it runs.
  */
-async function ownJobForLead(request: APIRequestContext, title: string): Promise<OwnJob> {
+async function ownJobForLead(request: APIRequestContext, title: string, from: 'today' | 'nextDay' = 'today'): Promise<OwnJob> {
   const office = { Authorization: `Bearer ${await tokenFor(request, 'office')}` };
   const lead = { Authorization: `Bearer ${await tokenFor(request, 'crewLead')}` };
-  const days = await okJson<{ today: string; days: Array<{ crewId: string; crewName: string }> }>(await request.get('/api/crew-days', { headers: lead }));
+  const days = await okJson<{ today: string; nextDay: string; days: Array<{ crewId: string; crewName: string }> }>(await request.get('/api/crew-days', { headers: lead }));
   const crewId = days.days.find((day) => day.crewName === 'Stack crew')!.crewId;
   const sites = await okJson<{ items: Array<{ id: string; clientId: string }> }>(await request.get('/api/sites?pageSize=1', { headers: office }));
   const created = await okJson<{ id: string; version: number }>(await request.post('/api/jobs', {
@@ -69,7 +70,7 @@ async function ownJobForLead(request: APIRequestContext, title: string): Promise
   const job = await okJson<{ id: string; version: number; reference: string }>(await request.post(`/api/jobs/${created.id}/status`, { headers: office, data: { status: 'booked', version: created.version } }));
   const placed = await okJson<{ assignment: { id: string; days: string[] } }>(await request.post('/api/assignments', {
     headers: office,
-    data: { jobId: job.id, crewId, startDate: days.today, confirmDoubleBooking: true },
+    data: { jobId: job.id, crewId, startDate: days[from], confirmDoubleBooking: true },
   }));
   return {
     reference: job.reference,
@@ -78,7 +79,7 @@ async function ownJobForLead(request: APIRequestContext, title: string): Promise
       // Read again: what the test did may have moved the assignment's version on.
       const now = await okJson<{ days: Array<{ assignmentId: string; assignmentVersion: number }> }>(await request.get('/api/crew-days', { headers: lead }));
       const version = now.days.find((day) => day.assignmentId === placed.assignment.id)?.assignmentVersion;
-      if (version !== undefined) await request.delete(`/api/assignments/${placed.assignment.id}?version=${version}`, { headers: office });
+      if (version !== undefined) await okJson(await request.delete(`/api/assignments/${placed.assignment.id}?version=${version}`, { headers: office }));
     },
   };
 }
@@ -242,30 +243,12 @@ test.describe('the crew phone', () => {
 
   // Last in the file: it puts a second job on the crew's tomorrow for as long as it runs.
   test("the lead's phone says so when the office puts a job on their crew's tomorrow", async ({ page, request }, info) => {
-    const office = { Authorization: `Bearer ${await tokenFor(request, 'office')}` };
-    const lead = { Authorization: `Bearer ${await tokenFor(request, 'crewLead')}` };
-    const read = async <T,>(response: Awaited<ReturnType<APIRequestContext['get']>>): Promise<T> => {
-      expect(response.ok(), await response.text()).toBe(true);
-      return (await response.json()) as T;
-    };
-
     await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
     await expect(page.getByRole('heading', { level: 1, name: 'Your days' })).toBeVisible();
     // The phone connects for pushes once its days have loaded.
     await expect(page.locator('.crew-home[data-live="live"]')).toBeVisible({ timeout: 15_000 });
 
-    const days = await read<{ nextDay: string; days: Array<{ crewId: string; crewName: string }> }>(await request.get('/api/crew-days', { headers: lead }));
-    const crewId = days.days.find((day) => day.crewName === 'Stack crew')!.crewId;
-    const sites = await read<{ items: Array<{ id: string; clientId: string }> }>(await request.get('/api/sites?pageSize=1', { headers: office }));
-    const created = await read<{ id: string; version: number; reference: string }>(await request.post('/api/jobs', {
-      headers: office,
-      data: { clientId: sites.items[0]!.clientId, siteId: sites.items[0]!.id, title: `Coping stones ${Date.now().toString(36)}`, workTypes: ['garden-wall'], estimatedWorkingDays: 1 },
-    }));
-    const job = await read<{ id: string; version: number; reference: string }>(await request.post(`/api/jobs/${created.id}/status`, { headers: office, data: { status: 'booked', version: created.version } }));
-    const placed = await read<{ assignment: { id: string; version: number } }>(await request.post('/api/assignments', {
-      headers: office,
-      data: { jobId: job.id, crewId, startDate: days.nextDay, confirmDoubleBooking: true },
-    }));
+    const job = await ownJobForLead(request, 'Coping stones', 'nextDay');
 
     const banner = page.getByRole('alert').filter({ hasText: /(Tomorrow|Monday|Tuesday|Wednesday|Thursday|Friday)'s job changed/ });
     await expect(banner).toContainText(job.reference);
@@ -274,6 +257,6 @@ test.describe('the crew phone', () => {
     await banner.getByRole('button', { name: 'Dismiss' }).click();
     await expect(banner).toHaveCount(0);
 
-    await read(await request.delete(`/api/assignments/${placed.assignment.id}?version=${placed.assignment.version}`, { headers: office }));
+    await job.remove();
   });
 });

@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef, watch } from 'vue';
-import { addDays, format, parseISO } from 'date-fns';
+import { format, parseISO } from 'date-fns';
+import { addDays } from '@hodboard/shared';
 import type { CrewDayDto, CrewDaysDto, HoldReason, PhotoDto, ScheduleChangedMessage, SiteNoteDto } from '@hodboard/shared';
 import { getCrewDays, raiseStandDown, takePrefetchedCrewDays } from '@/api/crew-days';
 import { isApiError } from '@/api/http';
@@ -49,12 +50,10 @@ export const useCrewStore = defineStore('crew', () => {
 
   const today = computed(() => data.value?.days.filter((day) => day.date === data.value?.today) ?? []);
   const nextDay = computed(() => data.value?.days.filter((day) => day.date === data.value?.nextDay) ?? []);
+  const isNextDayTomorrow = computed(() => !data.value || addDays(data.value.today, 1) === data.value.nextDay);
   /** What the crew calls the next working day: "Tomorrow", or its weekday after a Friday or a holiday. */
-  const nextDayName = computed(() => {
-    if (!data.value) return 'Tomorrow';
-    const { today, nextDay: date } = data.value;
-    return format(addDays(parseISO(today), 1), 'yyyy-MM-dd') === date ? 'Tomorrow' : format(parseISO(date), 'EEEE');
-  });
+  const nextDayName = computed(() => (isNextDayTomorrow.value ? 'Tomorrow' : format(parseISO(data.value!.nextDay), 'EEEE')));
+  const nextDayInSentence = computed(() => (isNextDayTomorrow.value ? 'tomorrow' : nextDayName.value));
   const waiting = computed(() => outboxState.value.items);
 
   function notesFor(jobId: string): SiteNoteDto[] {
@@ -192,7 +191,7 @@ export const useCrewStore = defineStore('crew', () => {
     const wasNextDay = nextDay.value.some((day) => day.job.id === change.job.id || day.assignmentId === change.removedAssignmentId);
     const isNextDay = Boolean(change.assignment?.days.includes(data.value.nextDay));
     if (wasNextDay || isNextDay) {
-      const name = nextDayName.value === 'Tomorrow' ? 'tomorrow' : nextDayName.value;
+      const name = nextDayInSentence.value;
       const days = change.assignment?.days ?? [];
       const run = days.length === 0 ? 'unplaced' : days.length === 1 ? `on ${short(days[0]!)} only` : `${short(days[0]!)} to ${short(days[days.length - 1]!)}`;
       const summary = !change.assignment
@@ -219,7 +218,9 @@ export const useCrewStore = defineStore('crew', () => {
     isOnline,
     today,
     nextDay,
+    isNextDayTomorrow,
     nextDayName,
+    nextDayInSentence,
     waiting,
     outboxState,
     nextDayChange,
