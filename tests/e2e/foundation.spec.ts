@@ -35,6 +35,8 @@ async function navLabels(page: Page, info: TestInfo): Promise<string[]> {
   const labels = await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allInnerTexts();
   if (isPhone(info)) {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('button', { name: 'More' }).click();
+    // The sheet's code loads on first open: wait for the sheet before asking whether it lists more pages.
+    await expect(page.getByRole('dialog').filter({ hasText: 'Sign out' })).toBeVisible();
     const more = page.getByRole('navigation', { name: 'More pages' });
     if (await more.isVisible()) labels.push(...(await more.getByRole('link').allInnerTexts()));
     await page.keyboard.press('Escape');
