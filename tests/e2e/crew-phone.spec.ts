@@ -155,6 +155,11 @@ test.describe('the crew phone', () => {
     await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
     const card = page.getByRole('region', { name: own.section }).getByRole('article').filter({ hasText: reference }).first();
     await expect(card.getByRole('button', { name: 'Stand down for weather' })).toBeVisible();
+    // A phone that has the app's code: the service worker holds it once installed (a first visit that loses its
+    // signal sooner is the next test's).
+    await page.evaluate(async () => {
+      await navigator.serviceWorker.ready;
+    });
     const noteText = `Mortar boards washed and stacked ${Date.now().toString(36)}`;
 
     await context.setOffline(true);
@@ -194,6 +199,40 @@ test.describe('the crew phone', () => {
     expect(holds.filter((hold) => hold.reason === 'rain')).toHaveLength(1);
     await shot(page, 'crew-back-online');
     await own.remove();
+  });
+
+  test.describe('on a first visit', () => {
+    // No service worker yet, as on a phone that has not kept the app's code, so the page's own requests are all there is.
+    test.use({ serviceWorkers: 'block' });
+
+    test('a stand-down form whose code had not arrived when the signal went says so, and opens when the signal is back', async ({ page, context, request }, info) => {
+      test.setTimeout(90_000);
+      const own = await ownJobForLead(request, 'Gable verge');
+      // The form's code never gets through while this holds: the signal went as it was on its way.
+      const formCode = '**/assets/CrewStandDownDialog-*.js';
+      await page.route(formCode, (route) => route.abort('internetdisconnected'));
+      await signIn(page, DEMO_USERS.crewLead.email, DEMO_USERS.crewLead.password);
+      const card = page.getByRole('region', { name: own.section }).getByRole('article').filter({ hasText: own.reference }).first();
+      await expect(card.getByRole('button', { name: 'Stand down for weather' })).toBeVisible();
+
+      await context.setOffline(true);
+      await card.getByRole('button', { name: 'Stand down for weather' }).click();
+      const notice = page.getByRole('status').filter({ hasText: 'This form had not reached the phone' });
+      await expect(notice).toContainText('It opens by itself when the signal is back');
+      await expect(page.getByRole('dialog')).toHaveCount(0);
+      await screenShot(page, info, 'crew-form-on-its-way');
+
+      await page.unroute(formCode);
+      await context.setOffline(false);
+      const dialog = page.getByRole('dialog');
+      await expect(dialog.getByText(/competent person on site decides/)).toBeVisible({ timeout: 15_000 });
+      await expect(notice).toHaveCount(0);
+      await dialog.getByText('Frost or cold', { exact: true }).click();
+      await dialog.getByRole('button', { name: 'Next' }).click();
+      await dialog.getByRole('button', { name: 'Confirm stand-down' }).click();
+      await expect(card.getByRole('status')).toContainText(/Stood down for frost/i, { timeout: 15_000 });
+      await own.remove();
+    });
   });
 
   test("reopened with no signal, the phone shows the crew home from what it saved, and what waits is still queued", async ({ page, context, request }, info) => {

@@ -1,4 +1,5 @@
 import { nextTick, shallowRef, type App, type Component } from 'vue';
+import { loadWithRetry } from '@/utils/lazy-code';
 
 /**
  * PrimeVue's Toast and ConfirmDialog, loaded the first time something asks for a toast or a confirmation rather
@@ -10,7 +11,7 @@ export const overlayComponents = shallowRef<{ Toast: Component; ConfirmDialog: C
 let loading: Promise<void> | null = null;
 
 export function loadOverlays(): Promise<void> {
-  loading ??= Promise.all([import('primevue/toast'), import('primevue/confirmdialog')]).then(async ([toast, confirm]) => {
+  loading ??= loadWithRetry(() => Promise.all([import('primevue/toast'), import('primevue/confirmdialog')])).then(async ([toast, confirm]) => {
     overlayComponents.value = { Toast: toast.default, ConfirmDialog: confirm.default };
     // Mounted in this flush; both listen for their messages from their mounted hooks.
     await nextTick();
