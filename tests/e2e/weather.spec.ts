@@ -43,7 +43,7 @@ test.describe('weather stand-downs', () => {
       const ownerPage = ownerContext ? await ownerContext.newPage() : null;
       if (ownerPage) {
         await signIn(ownerPage, DEMO_USERS.owner.email, DEMO_USERS.owner.password);
-        await expect(ownerPage.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+        await expect(ownerPage.getByRole('status').filter({ hasText: /^Live$/ })).toBeVisible();
         await expect(barOf(ownerPage, job.id, false)).toHaveAttribute('data-end', lastDay);
         await ownerPage.evaluate(() => ((window as unknown as { notReloaded: boolean }).notReloaded = true));
       }
