@@ -18,8 +18,11 @@ const { describeSupplierAnswer } = await import('./supplier-answer-text');
 // Loaded once here, as a page that has used them would have: the composable's own imports then resolve at once.
 await import('@/stores/access-store');
 
-/** Lets the lazily loaded connection, store and words arrive. */
-const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
+/** Lets the next paint pass, after which the connection loads, and the lazily loaded connection, store and words arrive. */
+const settle = async () => {
+  await new Promise((resolve) => requestAnimationFrame(() => setTimeout(resolve)));
+  await new Promise((resolve) => setTimeout(resolve, 0));
+};
 
 function booking(overrides: Partial<AccessBookingDto> = {}): AccessBookingDto {
   return {

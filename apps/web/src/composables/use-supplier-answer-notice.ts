@@ -2,6 +2,7 @@ import { onScopeDispose, watch } from 'vue';
 import { useToast } from 'primevue/usetoast';
 import type { RealtimeClient } from '@/realtime/socket';
 import { useSessionStore } from '@/stores/session-store';
+import { afterNextPaint } from '@/utils/after-paint';
 
 const loadAppRealtime = async (): Promise<RealtimeClient> => (await import('@/realtime/socket')).realtime;
 
@@ -26,6 +27,9 @@ export function useSupplierAnswerNotice(loadClient: () => Promise<RealtimeClient
   }
 
   async function listen(): Promise<void> {
+    // After the page has painted: the connection's code (socket.io) should not hold back any first screen.
+    await afterNextPaint();
+    if (isDisposed || stopListening) return;
     const client = await loadClient();
     if (isDisposed || stopListening) return;
     stopListening = client.onResourceChanged((message) => {

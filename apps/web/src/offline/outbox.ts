@@ -1,6 +1,7 @@
 import type { HoldReason } from '@hodboard/shared';
 import { isApiError } from '@/api/http';
 import { messageForError } from '@/api/problem-messages';
+import { compareCodes } from '@/utils/compare';
 
 export type OutboxItem =
   | (OutboxBase & { kind: 'note'; body: string })
@@ -84,7 +85,7 @@ export class Outbox {
   load(): Promise<void> {
     this.loaded ??= this.store.all().then((items) => {
       // A tab closed mid-send left "sending": it was never confirmed, so it waits again.
-      this.items = items.map((item): OutboxItem => (item.state === 'sending' ? { ...item, state: 'waiting' as const } : item)).sort((a, b) => a.createdAt.localeCompare(b.createdAt));
+      this.items = items.map((item): OutboxItem => (item.state === 'sending' ? { ...item, state: 'waiting' as const } : item)).sort((a, b) => compareCodes(a.createdAt, b.createdAt));
       this.emit();
     });
     return this.loaded;

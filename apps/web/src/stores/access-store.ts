@@ -17,6 +17,7 @@ import type {
 import * as accessApi from '@/api/access';
 import { isApiError } from '@/api/http';
 import type { RealtimeClient } from '@/realtime/socket';
+import { compareCodes } from '@/utils/compare';
 
 /** What the board draws under a job: the window the access is (or should be) up. */
 export interface AccessBandView {
@@ -125,7 +126,7 @@ export const useAccessStore = defineStore('access', () => {
   let unbind: (() => void) | null = null;
 
   const bookingList = computed(() =>
-    Object.values(bookings.value).sort((a, b) => (a.hire?.erect ?? a.requestedErect ?? '').localeCompare(b.hire?.erect ?? b.requestedErect ?? '') || a.id.localeCompare(b.id)),
+    Object.values(bookings.value).sort((a, b) => compareCodes(a.hire?.erect ?? a.requestedErect ?? '', b.hire?.erect ?? b.requestedErect ?? '') || compareCodes(a.id, b.id)),
   );
 
   const bandsByJob = computed(() => {

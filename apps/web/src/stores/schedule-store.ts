@@ -19,6 +19,7 @@ import {
 import * as boardApi from '@/api/board';
 import { isApiError } from '@/api/http';
 import { useSessionStore } from './session-store';
+import { compareCodes } from '@/utils/compare';
 
 export interface ScheduleRange {
   from: string;
@@ -97,7 +98,7 @@ export const useScheduleStore = defineStore('schedule', () => {
     const byCrew = new Map<string, BoardAssignmentDto[]>();
     for (const crew of crews.value) byCrew.set(crew.id, []);
     for (const assignment of Object.values(assignments.value)) byCrew.get(assignment.crewId)?.push(assignment);
-    for (const list of byCrew.values()) list.sort((a, b) => a.startDate.localeCompare(b.startDate) || a.id.localeCompare(b.id));
+    for (const list of byCrew.values()) list.sort((a, b) => compareCodes(a.startDate, b.startDate) || compareCodes(a.id, b.id));
     return byCrew;
   });
 
@@ -105,7 +106,7 @@ export const useScheduleStore = defineStore('schedule', () => {
   const holdDaysByJob = computed(() => {
     const byJob = new Map<string, BoardHoldDayDto[]>();
     for (const day of holdDays.value) byJob.set(day.jobId, [...(byJob.get(day.jobId) ?? []), day]);
-    for (const list of byJob.values()) list.sort((a, b) => a.date.localeCompare(b.date));
+    for (const list of byJob.values()) list.sort((a, b) => compareCodes(a.date, b.date));
     return byJob;
   });
 

@@ -12,6 +12,7 @@ import type {
 } from '@hodboard/shared';
 import * as weatherApi from '@/api/weather';
 import type { RealtimeClient } from '@/realtime/socket';
+import { compareCodes } from '@/utils/compare';
 
 export type Verdict = DayWeatherDto['verdict'];
 
@@ -80,7 +81,7 @@ export const useWeatherStore = defineStore('weather', () => {
   const verdictsByJob = computed(() => {
     const byJob = new Map<string, DayWeatherDto[]>();
     for (const day of Object.values(dayVerdicts.value)) byJob.set(day.jobId, [...(byJob.get(day.jobId) ?? []), day]);
-    for (const list of byJob.values()) list.sort((a, b) => a.date.localeCompare(b.date));
+    for (const list of byJob.values()) list.sort((a, b) => compareCodes(a.date, b.date));
     return byJob;
   });
 
@@ -106,7 +107,7 @@ export const useWeatherStore = defineStore('weather', () => {
   function holdsForJob(jobId: string): WeatherHoldDto[] {
     return Object.values(holds.value)
       .filter((hold) => hold.jobId === jobId)
-      .sort((a, b) => b.raisedAt.localeCompare(a.raisedAt));
+      .sort((a, b) => compareCodes(b.raisedAt, a.raisedAt));
   }
 
   async function loadVerdicts(): Promise<void> {
