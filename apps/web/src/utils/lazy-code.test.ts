@@ -1,7 +1,7 @@
 import { flushPromises, mount } from '@vue/test-utils';
 import { describe, expect, it, vi } from 'vitest';
 import { h } from 'vue';
-import { lazyComponent, loadWithRetry } from './lazy-code';
+import { componentOnCall, lazyComponent, loadWithRetry } from './lazy-code';
 
 const noSignal = () => new TypeError('Failed to fetch dynamically imported module: /assets/CrewStandDownDialog.js');
 
@@ -60,5 +60,19 @@ describe('code loaded on first use, tried again', () => {
     await vi.waitFor(() => expect(host.find('form').text()).toBe('Stand down for weather'));
     expect(lazy.loaded.value).toBe(true);
     host.unmount();
+  });
+
+  it('brings a component called for from code once, however often it is asked for, and tries again after a failure', async () => {
+    setOnline(true);
+    const Menu = (props: { title: string }) => h('nav', props.title);
+    const loader = vi.fn().mockRejectedValueOnce(new Error('500 /assets/menu.js')).mockResolvedValue({ default: Menu });
+    const menu = componentOnCall(loader, { onlineAttempts: 1 });
+    expect(menu.component.value).toBeNull();
+
+    await expect(menu.load()).rejects.toThrow('500 /assets/menu.js');
+    expect(menu.component.value).toBeNull();
+    await Promise.all([menu.load(), menu.load()]);
+    expect(loader).toHaveBeenCalledTimes(2);
+    expect(menu.component.value).toBe(Menu);
   });
 });

@@ -1,4 +1,4 @@
-import { defineAsyncComponent, shallowRef, type Component, type ShallowRef } from 'vue';
+import { defineAsyncComponent, markRaw, nextTick, shallowRef, type Component, type ShallowRef } from 'vue';
 
 export interface RetryOptions {
   /** Failures with the phone online before the load gives up. */
@@ -63,4 +63,37 @@ export function lazyComponent<T extends Component>(loader: () => Promise<{ defau
     }),
   );
   return { component, loaded };
+}
+
+export interface ComponentOnCall<T extends Component> {
+  /** Null until `load` has brought its code. */
+  component: Readonly<ShallowRef<T | null>>;
+  /** Brings its code once, tried again as loadWithRetry does, and waits for the render that mounts it. */
+  load(): Promise<void>;
+}
+
+/**
+ * A component whose code loads when code asks for it, not when it renders: for a menu or a popover that a tap opens
+ * through its instance (`show(event, target)`), so it must be mounted before the call.
+ */
+export function componentOnCall<T extends Component>(loader: () => Promise<{ default: T }>, options?: RetryOptions): ComponentOnCall<T> {
+  // Typed by hand: shallowRef's overloads widen a component type parameter into every shape a component can have.
+  const component: ShallowRef<T | null> = shallowRef(null);
+  let loading: Promise<void> | null = null;
+  return {
+    component,
+    load() {
+      loading ??= loadWithRetry(loader, options).then(
+        async (module) => {
+          component.value = markRaw(module.default);
+          await nextTick();
+        },
+        (error: unknown) => {
+          loading = null;
+          throw error;
+        },
+      );
+      return loading;
+    },
+  };
 }
