@@ -120,7 +120,7 @@ export interface AppServices {
 
 export function createServices(deps: AppDeps): AppServices {
   const events = deps.events ?? new EventBus();
-  const auth = new AuthService(deps.dataSource, deps.mailer, deps.clock, {
+  const auth = new AuthService(deps.dataSource, deps.mailer, events, deps.clock, {
     jwtSecret: deps.jwtSecret,
     accessTokenTtlSeconds: deps.accessTokenTtlSeconds ?? 900,
     refreshTokenTtlDays: deps.refreshTokenTtlDays ?? 30,
@@ -170,8 +170,12 @@ export function createServices(deps: AppDeps): AppServices {
   };
 }
 
-/** Every signed-in resource, by mount path; the tenancy sweep enumerates routes from this list. */
-export function resourceRouters(services: AppServices): Array<{ path: string; router: Router }> {
+/**
+ * Every signed-in resource, by mount path; the tenancy sweep enumerates routes from this list. `keepsBoards`: every
+ * change its routes make to what a board shows is published on the event bus (a schedule change, which the cached
+ * boards take in place, or a change that drops them), so a write there does not drop the firm's boards by itself.
+ */
+export function resourceRouters(services: AppServices): Array<{ path: string; router: Router; keepsBoards?: true }> {
   return [
     { path: '/api/people', router: peopleRouter(services.people) },
     { path: '/api/crews', router: crewsRouter(services.crews) },
@@ -180,20 +184,20 @@ export function resourceRouters(services: AppServices): Array<{ path: string; ro
     { path: '/api/jobs', router: jobsRouter(services.jobs) },
     { path: '/api/firm', router: firmRouter(services.firms) },
     { path: '/api/board', router: boardRouter(services.schedule, services.boards) },
-    { path: '/api/assignments', router: assignmentsRouter(services.schedule, services.boards) },
+    { path: '/api/assignments', router: assignmentsRouter(services.schedule), keepsBoards: true },
     { path: '/api/time-off', router: timeOffRouter(services.timeOff) },
     { path: '/api/suppliers', router: suppliersRouter(services.access) },
     { path: '/api/access-bookings', router: accessBookingsRouter(services.access) },
     { path: '/api/crew-days', router: crewDaysRouter(services.crewDays) },
-    { path: '/api/site-notes', router: siteNotesRouter(services.siteNotes) },
-    { path: '/api/photos', router: photosRouter(services.photos) },
-    { path: '/api/calendar-feeds', router: calendarFeedsRouter(services.calendarFeeds) },
-    { path: '/api/push', router: pushRouter(services.push) },
+    { path: '/api/site-notes', router: siteNotesRouter(services.siteNotes), keepsBoards: true },
+    { path: '/api/photos', router: photosRouter(services.photos), keepsBoards: true },
+    { path: '/api/calendar-feeds', router: calendarFeedsRouter(services.calendarFeeds), keepsBoards: true },
+    { path: '/api/push', router: pushRouter(services.push), keepsBoards: true },
     { path: '/api/weather-holds', router: weatherHoldsRouter(services.weather) },
     { path: '/api/weather', router: weatherRouter(services.weather, services.forecasts, services.forecasts.dataSource) },
-    { path: '/api/quotes', router: quotesRouter(services.quotes) },
-    { path: '/api/materials', router: materialsRouter(services.materials) },
-    { path: '/api/costing', router: costingRouter(services.costing, services.costingReports) },
+    { path: '/api/quotes', router: quotesRouter(services.quotes), keepsBoards: true },
+    { path: '/api/materials', router: materialsRouter(services.materials), keepsBoards: true },
+    { path: '/api/costing', router: costingRouter(services.costing, services.costingReports), keepsBoards: true },
   ];
 }
 
@@ -273,7 +277,9 @@ export function createApp(deps: AppDeps, services: AppServices = createServices(
   for (const { path: mount, router } of open.filter((entry) => entry.rawBody)) app.use(mount, router);
   app.use('/api', express.json({ limit: '100kb' }), cookieParser());
   for (const { path: mount, router, guards } of open.filter((entry) => !entry.rawBody)) app.use(mount, ...(guards ?? []), router);
-  for (const { path: mount, router } of resourceRouters(services)) app.use(mount, signedIn, router);
+  for (const { path: mount, router, keepsBoards } of resourceRouters(services)) {
+    app.use(mount, signedIn, ...(keepsBoards ? [services.boards.keepsBoardsOnWrite] : []), router);
+  }
   app.use('/api', notFoundHandler);
 
   if (deps.webDist && existsSync(deps.webDist)) {

@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import type { BoardDto } from '@hodboard/shared';
-import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
+import { addPerson, createHarness, inviteTokenFrom, PASSWORD, populateFirm, signIn, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 import { ScenarioProvider } from './weather-fixtures.js';
 
 let h: Harness;
@@ -139,9 +139,50 @@ describe('every kind of board-affecting write shows on the next read', () => {
 
   it('the day turning over, with no write at all', async () => {
     const before = await read().expect(200);
+    now.value = new Date('2027-03-01T06:10:00Z');
+    expect((await read().expect(200)).headers.etag).toBe(before.headers.etag);
     now.value = new Date('2027-03-02T06:00:00Z');
     const after = await read().expect(200);
     expect(after.headers.etag).not.toBe(before.headers.etag);
+  });
+
+  it('a crew member accepting their invitation under a new name, with their leave on the board', async () => {
+    const invited = await request(h.app).post('/api/people/invite').set(owner.auth).send({ email: 'mason@copse.example', name: 'New mason', role: 'operative' }).expect(201);
+    const crew = await request(h.app).get(`/api/crews/${ids.crewId}`).set(owner.auth).expect(200);
+    await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ name: crew.body.name, colour: crew.body.colour, memberIds: [invited.body.id] }).expect(200);
+    await request(h.app).post('/api/time-off').set(owner.auth)
+      .send({ scope: 'member', memberId: invited.body.id, label: 'Dentist', startDate: '2027-03-03', endDate: '2027-03-03' }).expect(201);
+    expect((await board()).crews[0]!.memberLeave.map((leave) => leave.name)).toEqual(['New mason']);
+    await request(h.app).post('/api/auth/accept-invite').send({ token: inviteTokenFrom(h.mailer, 'mason@copse.example'), name: 'Ada Flintwick', password: PASSWORD }).expect(200);
+    expect((await board()).crews[0]!.memberLeave.map((leave) => leave.name)).toEqual(['Ada Flintwick']);
+  });
+});
+
+describe('writes that change nothing a board shows keep it', () => {
+  let other: SignedIn;
+  const otherFirm = async () => {
+    other = await signUpFirm(h, 'Tallow Yard Builders', 'owner@tallow.example');
+    return populateFirm(h, other, 'Weir House');
+  };
+  const cases: Array<[string, Write, Write?]> = [
+    ['a sign-in', () => signIn(h, 'owner@copse.example')],
+    ['another firm signing up', () => signUpFirm(h, 'Tallow Yard Builders', 'owner@tallow.example')],
+    ['another firm\'s job edit', async () => {
+      const [theirJob] = (await request(h.app).get('/api/jobs').set(other.auth).expect(200)).body.items as Array<{ id: string }>;
+      const job = await request(h.app).get(`/api/jobs/${theirJob!.id}`).set(other.auth).expect(200);
+      await request(h.app).put(`/api/jobs/${theirJob!.id}`).set(other.auth).send({ ...job.body, title: 'Rebuild weir wall', version: job.body.version }).expect(200);
+    }, otherFirm],
+    ['a site note', () => request(h.app).post('/api/site-notes').set(owner.auth).send({ jobId: ids.jobId, body: 'Lime mortar bags under the lean-to' }).expect(201)],
+    ['a price-list item', () => request(h.app).post('/api/materials').set(owner.auth)
+      .send({ name: 'Hydraulic lime NHL 3.5', unit: 'bag', unitPricePence: 1_450, supplier: 'Kilnside Supplies' }).expect(201)],
+  ];
+
+  it.each(cases)('%s', async (_name, write, setUp) => {
+    await setUp?.();
+    const before = await read().expect(200);
+    await write();
+    const after = await read().expect(200);
+    expect(after.headers.etag).toBe(before.headers.etag);
   });
 });
 

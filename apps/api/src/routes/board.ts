@@ -34,10 +34,8 @@ export function boardRouter(schedule: ScheduleService, boards: BoardCache): Rout
   return router;
 }
 
-export function assignmentsRouter(schedule: ScheduleService, boards: BoardCache): Router {
+export function assignmentsRouter(schedule: ScheduleService): Router {
   const router = Router();
-  // Each route here publishes what it did to the board as a schedule change, which the cached boards take in place.
-  router.use(boards.keepsBoardsOnWrite);
   router.post('/', ...endpoint({ body: assignmentCreateSchema }, async ({ actor, body }, _req, res) => {
     res.status(201).json(await schedule.place(actor, body));
   }));

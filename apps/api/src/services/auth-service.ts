@@ -15,6 +15,7 @@ import {
 import { AuthToken, CrewMember, Crew, Firm, Membership, User, type AuthTokenKind } from '../entities/index.js';
 import { errors } from '../errors.js';
 import type { Clock } from '../lib/clock.js';
+import type { EventBus } from '../lib/event-bus.js';
 import { hashToken, newOpaqueToken } from '../lib/tokens.js';
 import type { Actor } from './actor.js';
 import { recordAudit } from './audit-service.js';
@@ -52,6 +53,7 @@ export class AuthService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly mailer: Mailer,
+    private readonly events: EventBus,
     private readonly clock: Clock,
     private readonly settings: AuthSettings,
   ) {
@@ -147,7 +149,7 @@ export class AuthService {
 
   async acceptInvite(input: AcceptInviteInput): Promise<IssuedSession> {
     const passwordHash = await hashPassword(input.password);
-    return this.dataSource.transaction(async (manager) => {
+    const accepted = await this.dataSource.transaction(async (manager) => {
       const token = await this.consume(manager, 'invite', input.token);
       const membership = await manager.findOne(Membership, {
         where: { id: token.membershipId ?? '' },
@@ -162,8 +164,11 @@ export class AuthService {
       await recordAudit(manager, { firmId: membership.firmId, userId: membership.userId }, {
         entity: 'membership', entityId: membership.id, action: 'invite-accepted',
       });
-      return this.issueSession(manager, membership.user, membership, membership.firm);
+      return { membershipId: membership.id, firmId: membership.firmId, issued: await this.issueSession(manager, membership.user, membership, membership.firm) };
     });
+    // The person's name is now theirs, wherever it shows (a crew's leave on the board among them).
+    this.events.publish({ firmId: accepted.firmId, type: 'member:changed', id: accepted.membershipId });
+    return accepted.issued;
   }
 
   /** Verifies an access token and reloads the membership, so a removed person or changed role takes effect at once. */

@@ -8,8 +8,19 @@ import type { Actor } from './actor.js';
 import { patchBoard, type BoardView } from './board-patch.js';
 import type { ScheduleService } from './schedule-service.js';
 
-/** Schedule changes a cached board can take in place; any other published change makes the firm's boards be read afresh. */
+/** Schedule changes a cached board can take in place. */
 const PATCHABLE = new Set(['assignment:created', 'assignment:moved', 'assignment:removed']);
+/**
+ * Published changes to things no board shows. A quote changes the job's status only through a `job:updated` of its
+ * own, and a photo or a site note is counted on the job's page, not on its card. Any other change makes the firm's
+ * boards be read afresh.
+ */
+const UNSEEN_ON_BOARDS = new Set([
+  'photo:added', 'site-note:added', 'quote:updated', 'costing:updated',
+  'material:created', 'material:updated', 'material:deleted', 'material:imported',
+]);
+
+const QUARTER_HOUR_MS = 15 * 60_000;
 
 export interface CachedBoard {
   etag: string;
@@ -33,18 +44,19 @@ interface Entry {
  * re-read of an unchanged board costs neither the queries nor the JSON nor the gzip.
  *
  * A firm's version moves on after every write: any non-GET request its people make (once it has answered, so after
- * its transaction committed), any committed change published on the event bus (timers and e-mailed links included),
- * and every firm's at once for a write nobody signed in made. A read keys its entry by the version it saw before
- * reading, so a write that commits while it runs leaves it under a version nobody asks for. The key also holds the
- * minute of the clock, because "today" and a forecast's staleness change the board with no write at all.
+ * its transaction committed) unless its route publishes all it changes (`keepsBoardsOnWrite`), and any committed change
+ * published on the event bus (timers, e-mailed links and webhooks included) except those in UNSEEN_ON_BOARDS. A read
+ * keys its entry by the version it saw before reading, so a write that commits while it runs leaves it under a version
+ * nobody asks for. The key also holds the quarter-hour of the clock, because "today" and a forecast's staleness change
+ * the board with no write at all: every time zone's midnight falls on a quarter-hour of UTC, so a new day is seen at
+ * once, and a forecast turning stale (after hours) shows at most a quarter of an hour late.
  *
- * A schedule change (a card placed, moved or sent back) is the exception: its request says so
- * (`keepsBoardsOnWrite`), and the change it publishes is applied to each finished board of the firm (patchBoard), so
- * the next read skips the queries and the rules. Whatever else the request changed publishes its own change, which
- * moves the version on as usual.
+ * A schedule change (a card placed, moved or sent back) is the exception: the change it publishes is applied to each
+ * finished board of the firm (patchBoard), so the next read skips the queries and the rules. Whatever else the request
+ * changed publishes its own change, which moves the version on as usual.
  *
  * Single process only: the versions live here, as the event bus does. A second API process, or a write made
- * straight into the database, is not seen until the minute turns.
+ * straight into the database, is not seen until the quarter-hour turns.
  */
 export class BoardCache {
   private readonly bootId = randomUUID().slice(0, 8);
@@ -59,7 +71,10 @@ export class BoardCache {
     private readonly clock: Clock,
     private readonly maxEntries = 24,
   ) {
-    events.subscribe((event) => (PATCHABLE.has(event.type) ? this.patch(event) : this.invalidate(event.firmId)));
+    events.subscribe((event) => {
+      if (PATCHABLE.has(event.type)) this.patch(event);
+      else if (!UNSEEN_ON_BOARDS.has(event.type)) this.invalidate(event.firmId);
+    });
   }
 
   /** Forgets the boards of one firm, or of every firm. */
@@ -80,8 +95,10 @@ export class BoardCache {
       const bump = () => {
         if (done) return;
         done = true;
-        if (res.locals.keepsBoards === true) return;
-        this.invalidate((res.locals.actor as Actor | undefined)?.firmId);
+        const actor = res.locals.actor as Actor | undefined;
+        // A write nobody signed in made (sign-in, an e-mailed link, a webhook) is seen through the change it publishes.
+        if (res.locals.keepsBoards === true || !actor) return;
+        this.invalidate(actor.firmId);
       };
       res.once('finish', bump);
       res.once('close', bump);
@@ -100,10 +117,10 @@ export class BoardCache {
 
   async read(actor: Actor, query: BoardQuery): Promise<CachedBoard> {
     const view = this.schedule.boardView(actor, query);
-    const minute = Math.floor(this.clock().getTime() / 60_000);
+    const quarterHour = Math.floor(this.clock().getTime() / QUARTER_HOUR_MS);
     const version = `${this.everyFirm}.${this.versions.get(actor.firmId) ?? 0}`;
     // The view is what the reader gets (the tray or not, which crews), so two readers who get the same board share it.
-    const key = [actor.firmId, version, minute, view.hasTray ? 'tray' : '', view.crewIds?.join(',') ?? 'every crew', view.from, view.to].join('|');
+    const key = [actor.firmId, version, quarterHour, view.hasTray ? 'tray' : '', view.crewIds?.join(',') ?? 'every crew', view.from, view.to].join('|');
     const known = this.entries.get(key);
     if (known) {
       // Most recently used last, so the oldest is the first to go.
