@@ -1,11 +1,13 @@
 // Board and live-push benchmark: 30 crews × 13 weeks with 2,000 jobs, each figure beside a floor measured in
 // the same run (a hand-written SQL query; a bare socket.io broadcast). The board is timed after a move (a card moved
 // inside the range before each read, which the cached board takes in place), cold (a job edit before each read, so the
-// board is built afresh) and warm (re-reads of an unchanged board). Writes rows to BENCH_RESULTS_FILE.
+// board is built afresh) and warm (re-reads of an unchanged board), beside a reference: the floor's rows served as
+// gzipped JSON by a bare HTTP server. Writes rows to BENCH_RESULTS_FILE.
 import { writeFileSync } from 'node:fs';
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
+import { gzipSync } from 'node:zlib';
 import { Server } from 'socket.io';
 import { io as connect, type Socket } from 'socket.io-client';
 import { addDays } from '@hodboard/shared';
@@ -79,6 +81,22 @@ const floorSql = `SELECT a.id, a.job_id, a.crew_id, a.start_date, a.working_days
 const floor = await time(() => dataSource.query(floorSql, [firmId, from, to]), RUNS);
 console.log(`  ${rows} assignments per board response`);
 
+// What any uncached read over HTTP costs at the least: the floor's rows as JSON, gzipped as the app gzips, from a
+// bare node:http server (no sign-in, no rules, no framework) and read with fetch. Not a target; it shows how much of
+// a cold read is the transfer alone.
+const minimal = createServer((_req, res) => {
+  dataSource.query(floorSql, [firmId, from, to]).then((found: unknown[]) => {
+    res.writeHead(200, { 'content-type': 'application/json', 'content-encoding': 'gzip' });
+    res.end(gzipSync(JSON.stringify(found), { level: 1 }));
+  }, (error: unknown) => res.destroy(error as Error));
+});
+await new Promise<void>((resolve) => minimal.listen(0, '127.0.0.1', resolve));
+const minimalUrl = `http://127.0.0.1:${(minimal.address() as AddressInfo).port}/`;
+const minimalRead = await time(async () => {
+  await (await fetch(minimalUrl)).json();
+}, RUNS);
+await new Promise<void>((resolve) => minimal.close(() => resolve()));
+
 console.log(`move → push at ${SOCKETS} sockets…`);
 const sockets: Socket[] = [];
 for (let i = 0; i < SOCKETS; i += 1) {
@@ -140,6 +158,8 @@ const results = [
   { figure: 'board p95, cold: built afresh, ms', hodboard: coldP95, floor: floorP95, target: '≤ 2× floor and ≤ 50', met: boardTarget(coldP95) },
   { figure: 'board p50, warm: unchanged board from the cache, ms', hodboard: ms(quantile(warm, 0.5)), floor: ms(quantile(floor, 0.5)), target: '—', met: '' },
   { figure: 'board p95, warm: unchanged board from the cache, ms', hodboard: warmP95, floor: floorP95, target: '≤ 2× floor and ≤ 50', met: boardTarget(warmP95) },
+  { figure: 'reference p50: the floor\'s rows as gzipped JSON from a bare node:http server, read with fetch, ms', hodboard: ms(quantile(minimalRead, 0.5)), floor: ms(quantile(floor, 0.5)), target: '—', met: '' },
+  { figure: 'reference p95: the same, ms', hodboard: ms(quantile(minimalRead, 0.95)), floor: floorP95, target: '—', met: '' },
   { figure: `move → push p95 (${SOCKETS} sockets), ms`, hodboard: pushP95, floor: ms(quantile(bareSamples, 0.95)), target: '≤ 100', met: pushP95 <= 100 ? 'yes' : 'NO' },
 ].map((row) => ({ ...row, ratio: ratio(row.hodboard, row.floor) }));
 console.table(results);
