@@ -181,7 +181,7 @@ export function resourceRouters(services: AppServices): Array<{ path: string; ro
     { path: '/api/crews', router: crewsRouter(services.crews) },
     { path: '/api/clients', router: clientsRouter(services.clients) },
     { path: '/api/sites', router: sitesRouter(services.sites) },
-    { path: '/api/jobs', router: jobsRouter(services.jobs) },
+    { path: '/api/jobs', router: jobsRouter(services.jobs), keepsBoards: true },
     { path: '/api/firm', router: firmRouter(services.firms) },
     { path: '/api/board', router: boardRouter(services.schedule, services.boards) },
     { path: '/api/assignments', router: assignmentsRouter(services.schedule), keepsBoards: true },

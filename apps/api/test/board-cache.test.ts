@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { BoardDto } from '@hodboard/shared';
 import { addPerson, createHarness, inviteTokenFrom, PASSWORD, populateFirm, signIn, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 import { ScenarioProvider } from './weather-fixtures.js';
@@ -73,6 +73,13 @@ describe('every kind of board-affecting write shows on the next read', () => {
       const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
       await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth).send({ ...job.body, title: 'Repoint barn gable and porch', version: job.body.version }).expect(200);
     }, (_, after) => expect(after.jobs[ids.jobId]!.title).toBe('Repoint barn gable and porch')],
+    ['a job\'s target finish, which a rule reads', async () => {
+      const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+      await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth).send({ ...job.body, targetFinish: '2027-03-02', version: job.body.version }).expect(200);
+    }, (before, after) => {
+      expect(before.conflicts.filter((c) => c.kind === 'after-target-finish')).toEqual([]);
+      expect(after.conflicts.filter((c) => c.kind === 'after-target-finish').map((c) => c.jobId)).toEqual([ids.jobId]);
+    }],
     ['a crew rename', async () => {
       const crew = await request(h.app).get(`/api/crews/${ids.crewId}`).set(owner.auth).expect(200);
       await request(h.app).put(`/api/crews/${ids.crewId}`).set(owner.auth).send({ ...crew.body, name: 'Ridge crew' }).expect(200);
@@ -155,6 +162,20 @@ describe('every kind of board-affecting write shows on the next read', () => {
     expect((await board()).crews[0]!.memberLeave.map((leave) => leave.name)).toEqual(['New mason']);
     await request(h.app).post('/api/auth/accept-invite').send({ token: inviteTokenFrom(h.mailer, 'mason@copse.example'), name: 'Ada Flintwick', password: PASSWORD }).expect(200);
     expect((await board()).crews[0]!.memberLeave.map((leave) => leave.name)).toEqual(['Ada Flintwick']);
+  });
+});
+
+describe('a job edit of what no rule reads', () => {
+  it('is taken into the cached board with no fresh read', async () => {
+    const before = await board();
+    const reads = vi.spyOn(h.services.schedule, 'board');
+    const job = await request(h.app).get(`/api/jobs/${ids.jobId}`).set(owner.auth).expect(200);
+    await request(h.app).put(`/api/jobs/${ids.jobId}`).set(owner.auth)
+      .send({ ...job.body, title: 'Repoint barn gable and porch', priority: 'urgent', estimatedWorkingDays: 4, description: 'Both faces', version: job.body.version }).expect(200);
+    const after = await board();
+    expect(reads).not.toHaveBeenCalled();
+    expect(after.jobs[ids.jobId]).toEqual({ ...before.jobs[ids.jobId], title: 'Repoint barn gable and porch', priority: 'urgent', estimatedWorkingDays: 4, version: job.body.version + 1 });
+    expect(after).toEqual(JSON.parse(JSON.stringify(await h.services.schedule.board(await h.services.auth.authenticate(owner.token), { from: FROM, to: TO }))));
   });
 });
 

@@ -1,14 +1,15 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it, vi } from 'vitest';
-import { addDays, type BoardDto, type BoardQuery } from '@hodboard/shared';
+import { addDays, jobPriorities, type BoardDto, type BoardQuery } from '@hodboard/shared';
 import type { Actor } from '../src/services/actor.js';
 import { addPerson, createHarness, populateFirm, signUpFirm, truncateAll, type Harness, type SignedIn } from './harness.js';
 import { ScenarioProvider } from './weather-fixtures.js';
 
-// A cached board takes each schedule change in place instead of being read again. Whatever it took, the next read
-// must be the board a fresh read gives: checked here over a long random run of places, moves and removals, with the
-// rules' inputs all present (double-bookings, member leave, earliest starts and deadlines, a stand-down, a gale
-// forecast, a scaffold booking), for the office's whole board, the office's one-crew board and a crew lead's board.
+// A cached board takes each schedule change (and a job edit of what no rule reads) in place instead of being read
+// again. Whatever it took, the next read must be the board a fresh read gives: checked here over a long random run of
+// places, moves, removals and job edits, with the rules' inputs all present (double-bookings, member leave, earliest
+// starts and deadlines, a stand-down, a gale forecast, a scaffold booking), for the office's whole board, the office's
+// one-crew board and a crew lead's board.
 
 let h: Harness;
 let owner: SignedIn;
@@ -83,7 +84,7 @@ function normalised(board: BoardDto): BoardDto {
 }
 
 describe('a cached board patched by schedule changes', () => {
-  it('reads the same as a fresh board after every place, move and removal, for every kind of reader', async () => {
+  it('reads the same as a fresh board after every place, move, removal and job edit, for every kind of reader', async () => {
     const actor = (who: SignedIn): Promise<Actor> => h.services.auth.authenticate(who.token);
     const readers: Array<{ who: SignedIn; query: BoardQuery }> = [
       { who: owner, query: { from: FROM, to: TO } },
@@ -112,6 +113,16 @@ describe('a cached board patched by schedule changes', () => {
       if (office.trayJobIds.length > 0 && (roll < 0.3 || placed.length === 0)) {
         res = await request(h.app).post('/api/assignments').set(owner.auth)
           .send({ jobId: pick(office.trayJobIds), crewId: pick(crews), startDate: dayNear(), confirmDoubleBooking: true });
+      } else if (roll < 0.45) {
+        // A job edit: its title or priority, which the boards take in place, or now and then its target finish, which
+        // drops them. The priority orders the tray, so it is edited on tray jobs; the others on any job.
+        const kind = next();
+        const jobId = kind < 0.9 && kind >= 0.45 && office.trayJobIds.length > 0 ? pick(office.trayJobIds) : pick([...office.trayJobIds, ...placed.map((card) => card.jobId)]);
+        const job = (await request(h.app).get(`/api/jobs/${jobId}`).set(owner.auth).expect(200)).body as { title: string; priority: string; targetFinish: string | null; version: number };
+        const edit = kind < 0.45 ? { title: `${job.title.split(' · ')[0]} · ${step}` }
+          : kind < 0.9 ? { priority: pick(jobPriorities.filter((p) => p !== job.priority)) }
+            : { targetFinish: job.targetFinish ? null : '2027-03-03' };
+        res = await request(h.app).put(`/api/jobs/${jobId}`).set(owner.auth).send({ ...job, ...edit });
       } else if (roll < 0.85 || office.trayJobIds.length === 0) {
         const card = pick(placed);
         res = await request(h.app).put(`/api/assignments/${card.id}`).set(owner.auth).send({

@@ -5,7 +5,8 @@ import type { Clock } from '../lib/clock.js';
 import type { DomainEvent, EventBus } from '../lib/event-bus.js';
 import { SectionedGzip } from '../lib/sectioned-gzip.js';
 import type { Actor } from './actor.js';
-import { patchBoard, type BoardView } from './board-patch.js';
+import { patchBoard, patchJobEdit, type BoardView } from './board-patch.js';
+import type { JobEditedPayload } from './job-service.js';
 import type { ScheduleService } from './schedule-service.js';
 
 /** Schedule changes a cached board can take in place. */
@@ -53,7 +54,8 @@ interface Entry {
  *
  * A schedule change (a card placed, moved or sent back) is the exception: the change it publishes is applied to each
  * finished board of the firm (patchBoard), so the next read skips the queries and the rules. Whatever else the request
- * changed publishes its own change, which moves the version on as usual.
+ * changed publishes its own change, which moves the version on as usual. A job edit of fields no rule reads is taken
+ * in place the same way (patchJobEdit).
  *
  * Single process only: the versions live here, as the event bus does. A second API process, or a write made
  * straight into the database, is not seen until the quarter-hour turns.
@@ -73,6 +75,7 @@ export class BoardCache {
   ) {
     events.subscribe((event) => {
       if (PATCHABLE.has(event.type)) this.patch(event);
+      else if (event.type === 'job:updated' && isJobEdit(event.payload)) this.patchEach(event.firmId, (board) => patchJobEdit(board, event.payload as JobEditedPayload));
       else if (!UNSEEN_ON_BOARDS.has(event.type)) this.invalidate(event.firmId);
     });
   }
@@ -164,11 +167,21 @@ export class BoardCache {
    */
   private patch(event: DomainEvent): void {
     const { eventId, ...change } = event.payload as ScheduleChangeDto & { eventId: number };
+    this.patchEach(event.firmId, (board, view) => patchBoard(board, change, eventId, view));
+  }
+
+  private patchEach(firmId: string, apply: (board: BoardDto, view: BoardView) => BoardDto | null): void {
     for (const [key, entry] of this.entries) {
-      if (entry.firmId !== event.firmId) continue;
-      const board = entry.board && patchBoard(entry.board, change, eventId, entry.view);
+      if (entry.firmId !== firmId) continue;
+      // A board still being read may hold what was there before the change: dropped, as is one the change does not fit.
+      const board = entry.board && apply(entry.board, entry.view);
+      if (board && board === entry.board) continue;
       if (board) this.entries.set(key, { firmId: entry.firmId, view: entry.view, board, packer: entry.packer });
       else this.entries.delete(key);
     }
   }
+}
+
+function isJobEdit(payload: unknown): payload is JobEditedPayload {
+  return typeof payload === 'object' && payload !== null && 'changedFields' in payload && 'job' in payload;
 }

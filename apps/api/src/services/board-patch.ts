@@ -1,4 +1,5 @@
 import { compareTrayJobs, conflictWithin, TRAY_STATUSES, type BoardAssignmentDto, type BoardDto, type ScheduleChangeDto } from '@hodboard/shared';
+import type { JobEditedPayload } from './job-service.js';
 
 /** Which board a cached copy is: its range, whose crews it shows (null: every crew) and whether it carries the tray. */
 export interface BoardView {
@@ -66,6 +67,25 @@ export function patchBoard(board: BoardDto, change: ScheduleChangeDto, eventId: 
     holdDays: after ? board.holdDays : replaced(board.holdDays, (day) => day.jobId !== job.id, []),
     lastEventId: Math.max(board.lastEventId, eventId),
   };
+}
+
+/**
+ * Job fields a board draws as they are and no rule reads (the priority only orders the tray), and those no board
+ * shows at all. An edit of these alone changes nothing but the job's own entry.
+ */
+const FIELDS_TAKEN_IN_PLACE = new Set(['title', 'priority', 'estimatedWorkingDays', 'description', 'siteNotes']);
+
+/**
+ * The board after a job edit, or null when the edit changed a field the rules read (its client or site, its work
+ * types or access needs, its dates): then the board must be read afresh.
+ */
+export function patchJobEdit(board: BoardDto, edit: JobEditedPayload): BoardDto | null {
+  if (!edit.changedFields.every((field) => FIELDS_TAKEN_IN_PLACE.has(field))) return null;
+  const held = board.jobs[edit.job.id];
+  if (!held) return board;
+  const jobs = { ...board.jobs, [held.id]: { ...held, ...edit.job } };
+  const trayJobIds = board.trayJobIds.includes(held.id) ? [...board.trayJobIds].sort((a, b) => compareTrayJobs(jobs[a]!, jobs[b]!)) : board.trayJobIds;
+  return { ...board, jobs, trayJobIds };
 }
 
 /** The items kept, then the items added; the list itself when it keeps all and gains none. */

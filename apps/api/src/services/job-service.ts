@@ -6,6 +6,7 @@ import {
   dayRangeLabel,
   jobInputSchema,
   jobStatusLabels,
+  type BoardJobDto,
   type JobDto,
   type JobHistoryEntryDto,
   type JobListQuery,
@@ -89,11 +90,17 @@ export class JobService {
       assertVersion(existing, version, 'This job');
       await assertSiteOfClient(scope, values.clientId, values.siteId);
       const before = { ...existing };
+      const changedFields = (Object.keys(values) as Array<keyof typeof values>).filter((field) => !sameValue(existing[field], values[field]));
       const saved = await manager.save(Object.assign(existing, values));
       await recordAudit(manager, actor, { entity: 'job', entityId: id, action: 'updated', before, after: saved });
-      return saved;
+      return { saved, changedFields };
     });
-    this.events.publish({ firmId: actor.firmId, type: 'job:updated', id, version: job.version });
+    const { saved } = job;
+    const payload: JobEditedPayload = {
+      changedFields: job.changedFields,
+      job: { id, title: saved.title, priority: saved.priority, estimatedWorkingDays: saved.estimatedWorkingDays, version: saved.version },
+    };
+    this.events.publish({ firmId: actor.firmId, type: 'job:updated', id, version: saved.version, payload });
     return this.get(actor, id);
   }
 
@@ -284,4 +291,12 @@ export function toJobDto(row: Job): JobDto {
   };
 }
 
+/** What a job edit published: which of the job's fields it changed, and the new values of those a board draws as they are. */
+export interface JobEditedPayload {
+  changedFields: string[];
+  job: Pick<BoardJobDto, 'id' | 'title' | 'priority' | 'estimatedWorkingDays' | 'version'>;
+}
 
+function sameValue(a: unknown, b: unknown): boolean {
+  return Array.isArray(a) && Array.isArray(b) ? a.length === b.length && a.every((item, i) => item === b[i]) : a === b;
+}
